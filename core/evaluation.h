@@ -37,6 +37,7 @@ struct AccuracySummary {
     double mae = 0.0;
     double meanError = 0.0;
     double userRmseMean = 0.0;
+    double heldoutTopk = std::nan(""); ///< mean over users with a scored withheld item (also in RankingSummary)
     std::vector<BandStats> bands; ///< ascending by rating
 };
 
