@@ -11,7 +11,8 @@ struct WarningThresholds {
     double lowDiversityIld = 0.35;     ///< warn when ild < this
     double seriesShare = 0.5;          ///< warn when series_share >= this
     double popularTopPercent = 5.0;    ///< "popular only": every list item in the top this % by popularity
-    double calibrationKl = 1.0;        ///< warn when calibration_kl > this (nats)
+    double calibrationKl = 2.0;        ///< warn when calibration_kl > this (nats); 2.0 ≈ the list gives a
+                                       ///< one-genre history under 1/8 of its weight
     std::int32_t coldTrain = 5;        ///< cold user when train interactions < this
 };
 
