@@ -3,6 +3,8 @@
 
 #include "core/parallel.h"
 
+#include <Eigen/Core>
+
 #include <algorithm>
 #include <atomic>
 #include <cmath>
@@ -38,6 +40,41 @@ SplitMix64 streamFor(std::uint64_t seed, std::int32_t b)
     return SplitMix64{mixer.next()};
 }
 
+using FloatMatrix = Eigen::Matrix<float, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
+
+/// How often each row is drawn in resamples b0 .. b0+batch-1, row-major batch × rows.
+/// Returns false when a count overflowed its type.
+template <typename Count>
+bool fillCounts(std::vector<Count>& counts, std::size_t b0, std::size_t batch, std::size_t rows, std::uint64_t seed)
+{
+    counts.assign(batch * rows, 0);
+    bool overflow = false;
+    for (std::size_t b = 0; b < batch; ++b) {
+        SplitMix64 rng = streamFor(seed, static_cast<std::int32_t>(b0 + b));
+        Count* row = counts.data() + b * rows;
+        for (std::size_t i = 0; i < rows; ++i)
+            overflow |= ++row[boundedIndex(rng.next(), rows)] == 0;
+    }
+    return !overflow;
+}
+
+/// acc += counts · x, in blocks of rows so that each block of x is reused from cache.
+template <typename Count>
+void multiplyInBlocks(const std::vector<Count>& counts, std::size_t batch, std::size_t rows, const FloatMatrix& x,
+                      FloatMatrix& block, Eigen::MatrixXd& acc)
+{
+    using CountMatrix = Eigen::Matrix<Count, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
+    constexpr std::size_t kBlock = 4096;
+    for (std::size_t r0 = 0; r0 < rows; r0 += kBlock) {
+        const auto len = static_cast<Eigen::Index>(std::min(kBlock, rows - r0));
+        const Eigen::Map<const CountMatrix, 0, Eigen::OuterStride<>> c(counts.data() + r0,
+                                                                      static_cast<Eigen::Index>(batch), len,
+                                                                      Eigen::OuterStride<>(static_cast<Eigen::Index>(rows)));
+        block.noalias() = c.template cast<float>() * x.middleRows(static_cast<Eigen::Index>(r0), len);
+        acc += block.cast<double>();
+    }
+}
+
 } // namespace
 
 Bootstrap::Bootstrap(std::int32_t resamples, std::uint64_t seed) : m_resamples(std::max(0, resamples)), m_seed(seed) {}
@@ -45,30 +82,53 @@ Bootstrap::Bootstrap(std::int32_t resamples, std::uint64_t seed) : m_resamples(s
 std::vector<double> Bootstrap::resampleColumnSums(std::span<const double> table, std::size_t rows, std::size_t cols,
                                                   const Progress& progress) const
 {
-    std::vector<double> sums(static_cast<std::size_t>(m_resamples) * cols, 0.0);
-    if (rows == 0 || cols == 0 || m_resamples == 0)
+    const auto B = static_cast<std::size_t>(m_resamples);
+    std::vector<double> sums(B * cols, 0.0);
+    if (rows == 0 || cols == 0 || B == 0)
         return sums;
-    std::atomic<std::int32_t> done{0};
+
+    // Resample sums are C · X with C[b][i] = how often row i was drawn in resample b. Counting
+    // the draws (random increments into a row that stays in cache) and multiplying blocks of C
+    // with blocks of X is far faster than gathering random rows of X: the product runs as a
+    // blocked matrix multiplication. X is held in single precision (each block sum is
+    // accumulated into double), which moves an interval by far less than its last printed digit.
+    const FloatMatrix x =
+        Eigen::Map<const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(table.data(),
+                                                                                              static_cast<Eigen::Index>(rows),
+                                                                                              static_cast<Eigen::Index>(cols))
+            .cast<float>();
+    constexpr std::size_t kBatch = 32; // resamples per task
+    const std::size_t tasks = (B + kBatch - 1) / kBatch;
+
+    std::atomic<std::size_t> done{0};
     std::atomic<bool> stopped{false};
-    parallelFor(static_cast<std::size_t>(m_resamples), [&](std::size_t begin, std::size_t end, unsigned worker) {
-        std::vector<double> acc(cols);
-        for (std::size_t b = begin; b < end; ++b) {
+    parallelFor(tasks, [&](std::size_t begin, std::size_t end, unsigned worker) {
+        std::vector<std::uint8_t> counts8;
+        std::vector<std::uint16_t> counts16;
+        FloatMatrix block;
+        Eigen::MatrixXd acc;
+        for (std::size_t task = begin; task < end; ++task) {
             if (progress.cancelled()) {
                 stopped = true;
                 return;
             }
-            std::fill(acc.begin(), acc.end(), 0.0);
-            SplitMix64 rng = streamFor(m_seed, static_cast<std::int32_t>(b));
-            const double* base = table.data();
-            for (std::size_t i = 0; i < rows; ++i) {
-                const double* row = base + static_cast<std::size_t>(boundedIndex(rng.next(), rows)) * cols;
-                for (std::size_t c = 0; c < cols; ++c)
-                    acc[c] += row[c];
+            const std::size_t b0 = task * kBatch;
+            const std::size_t batch = std::min(kBatch, B - b0);
+            acc.setZero(static_cast<Eigen::Index>(batch), static_cast<Eigen::Index>(cols));
+            // One-byte counts keep a resample's row in cache; a count above 255 (practically
+            // impossible: a row is drawn Binomial(n, 1/n) times) redoes the batch with two bytes.
+            if (fillCounts(counts8, b0, batch, rows, m_seed))
+                multiplyInBlocks<std::uint8_t>(counts8, batch, rows, x, block, acc);
+            else {
+                fillCounts(counts16, b0, batch, rows, m_seed);
+                multiplyInBlocks<std::uint16_t>(counts16, batch, rows, x, block, acc);
             }
-            std::copy(acc.begin(), acc.end(), sums.begin() + static_cast<std::ptrdiff_t>(b * cols));
-            const std::int32_t finished = ++done;
-            if (worker == 0 && finished % 16 == 0)
-                progress(static_cast<double>(finished) / m_resamples, "bootstrap");
+            for (std::size_t b = 0; b < batch; ++b)
+                for (std::size_t col = 0; col < cols; ++col)
+                    sums[(b0 + b) * cols + col] = acc(static_cast<Eigen::Index>(b), static_cast<Eigen::Index>(col));
+            const std::size_t finished = done += batch;
+            if (worker == 0)
+                progress(static_cast<double>(finished) / static_cast<double>(B), "bootstrap");
         }
     });
     if (stopped)
