@@ -91,10 +91,15 @@ Paired restrict(const Paired& all, const std::vector<char>& member)
     return p;
 }
 
-std::string holmNote(std::size_t tests, const std::string& family)
+std::string tests(std::size_t n)
 {
-    return "p_holm: paired t-test p-values adjusted by Holm-Bonferroni (Holm 1979) across the " + std::to_string(tests)
-        + " tests of " + family + "; p_holm_wilcoxon does the same for the Wilcoxon p-values. Significance is judged on p_holm.";
+    return std::to_string(n) + (n == 1 ? " test" : " tests");
+}
+
+std::string holmNote(std::size_t count, const std::string& family)
+{
+    return "p_holm: paired t-test p-values adjusted by Holm-Bonferroni (Holm 1979) across the " + tests(count)
+        + " of " + family + "; p_holm_wilcoxon does the same for the Wilcoxon p-values. Significance is judged on p_holm.";
 }
 
 /// Adjusts a family in place (by pointer, so metrics and segment rows share one code path).
@@ -260,38 +265,28 @@ Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation
     for (std::size_t r = 0; r < candidate.users.size(); ++r)
         if (candidate.users.users[r].value < users)
             candidateRow[candidate.users.users[r].value] = static_cast<std::int64_t>(r);
-    std::vector<UserIndex> evaluated;
-    for (UserIndex u : base.users.users)
-        if (u.value < users && candidateRow[u.value] >= 0)
-            evaluated.push_back(u);
-    std::sort(evaluated.begin(), evaluated.end());
 
     const std::vector<std::uint32_t> baseMasks = warningMasks(base, users);
     const std::vector<std::uint32_t> candidateMasks = warningMasks(candidate, users);
 
-    std::vector<UserSegment> segments;
-    for (const SegmentSpec& spec : settings.segments) {
-        auto more = buildUserSegments(spec, evaluated, data, stats, base.settings, baseMasks, candidateMasks);
-        for (auto& s : more)
-            segments.push_back(std::move(s));
-    }
-
     // Which metrics both runs define for at least one user.
     std::vector<Metric> metrics;
     std::vector<Paired> paired;
+    std::string skipped;
     for (Metric m : settings.effectiveMetrics()) {
         if (std::find(metrics.begin(), metrics.end(), m) != metrics.end())
             continue;
         Paired p = pairValues(base, candidate, candidateRow, m);
         if (p.users.empty()) {
-            out.notes.push_back(std::string(comparisonMetricKey(m))
-                                + " left out: no user has it in both runs (a run without scores has no rmse/mae, "
-                                  "a run without lists no ranking or beyond-accuracy metrics).");
+            skipped += (skipped.empty() ? "" : ", ") + std::string(comparisonMetricKey(m));
             continue;
         }
         metrics.push_back(m);
         paired.push_back(std::move(p));
     }
+    if (!skipped.empty())
+        out.notes.push_back("Left out, as no user has them in both runs: " + skipped
+                            + " (rmse and mae need scores; ranking and beyond-accuracy metrics need lists).");
     if (metrics.empty()) {
         Error e;
         e.kind = ErrorKind::Usage;
@@ -299,6 +294,22 @@ Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation
         e.value = settings.toJson();
         e.expected = "a metric both runs can be scored on (rmse/mae need scores, ranking metrics need lists)";
         return e;
+    }
+
+    // Segments split the users compared on at least one metric.
+    std::vector<char> compared(users, 0);
+    for (const Paired& p : paired)
+        for (UserIndex u : p.users)
+            compared[u.value] = 1;
+    std::vector<UserIndex> evaluated;
+    for (std::size_t u = 0; u < users; ++u)
+        if (compared[u])
+            evaluated.emplace_back(static_cast<std::uint32_t>(u));
+    std::vector<UserSegment> segments;
+    for (const SegmentSpec& spec : settings.segments) {
+        auto more = buildUserSegments(spec, evaluated, data, stats, base.settings, baseMasks, candidateMasks);
+        for (auto& s : more)
+            segments.push_back(std::move(s));
     }
 
     const double tasks = static_cast<double>(metrics.size() * (1 + segments.size()));
@@ -356,8 +367,8 @@ Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation
             for (auto& m : s.metrics)
                 segmentFamily.push_back(&m);
         adjustFamily(segmentFamily, settings);
-        out.notes.push_back("Segment rows are adjusted as a separate Holm family of " + std::to_string(countTests(segmentFamily))
-                            + " tests (every segment and metric); segments under " + std::to_string(settings.minSegmentSize)
+        out.notes.push_back("Segment rows are adjusted as a separate Holm family of " + tests(countTests(segmentFamily))
+                            + " (every segment and metric); segments under " + std::to_string(settings.minSegmentSize)
                             + " users are marked too small to judge and never called significant.");
     }
     out.notes.push_back("Differences are candidate - base per user; the interval is a " + percent(settings.level)
@@ -431,8 +442,8 @@ std::vector<RunComparison> adjustAcrossPairs(std::vector<RunComparison> comparis
             for (auto& n : c.notes)
                 if (n.rfind("Segment rows are adjusted", 0) == 0)
                     n = "Segment rows of all " + std::to_string(comparisons.size())
-                        + " run pairs are adjusted as a separate Holm family of " + std::to_string(countTests(segmentFamily))
-                        + " tests; segments under " + std::to_string(settings.minSegmentSize)
+                        + " run pairs are adjusted as a separate Holm family of " + tests(countTests(segmentFamily))
+                        + "; segments under " + std::to_string(settings.minSegmentSize)
                         + " users are marked too small to judge and never called significant.";
         }
     }
