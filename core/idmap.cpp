@@ -5,7 +5,7 @@
 
 namespace slatewise::core {
 
-IdMap::IdMap() : m_offsets{0}, m_slots(1024, 0), m_hashes(1024, 0), m_mask(1023) {}
+IdMap::IdMap() : m_offsets{0}, m_slots(1024, 0), m_mask(1023) {}
 
 std::uint64_t IdMap::hash(std::string_view s)
 {
@@ -29,33 +29,32 @@ std::uint64_t IdMap::hash(std::string_view s)
 std::uint32_t IdMap::find(std::string_view key) const
 {
     const std::uint64_t h = hash(key);
-    const auto tag = static_cast<std::uint32_t>(h >> 32);
+    const std::uint64_t tag = h & 0xFFFFFFFF00000000ULL;
     for (std::uint64_t pos = h & m_mask;; pos = (pos + 1) & m_mask) {
-        const std::uint32_t slot = m_slots[pos];
+        const std::uint64_t slot = m_slots[pos];
         if (slot == 0)
             return kMissing;
-        if (m_hashes[pos] == tag && id(slot - 1) == key)
-            return slot - 1;
+        if ((slot & 0xFFFFFFFF00000000ULL) == tag && id(static_cast<std::uint32_t>(slot) - 1) == key)
+            return static_cast<std::uint32_t>(slot) - 1;
     }
 }
 
 IdMap::Insert IdMap::insert(std::string_view key)
 {
     const std::uint64_t h = hash(key);
-    const auto tag = static_cast<std::uint32_t>(h >> 32);
+    const std::uint64_t tag = h & 0xFFFFFFFF00000000ULL;
     std::uint64_t pos = h & m_mask;
     for (;; pos = (pos + 1) & m_mask) {
-        const std::uint32_t slot = m_slots[pos];
+        const std::uint64_t slot = m_slots[pos];
         if (slot == 0)
             break;
-        if (m_hashes[pos] == tag && id(slot - 1) == key)
-            return {slot - 1, false};
+        if ((slot & 0xFFFFFFFF00000000ULL) == tag && id(static_cast<std::uint32_t>(slot) - 1) == key)
+            return {static_cast<std::uint32_t>(slot) - 1, false};
     }
     const std::uint32_t index = size();
     m_arena.append(key);
     m_offsets.push_back(m_arena.size());
-    m_slots[pos] = index + 1;
-    m_hashes[pos] = tag;
+    m_slots[pos] = tag | (index + 1);
     if (static_cast<std::uint64_t>(size()) * 2 > m_mask)
         grow();
     return {index, true};
@@ -64,18 +63,16 @@ IdMap::Insert IdMap::insert(std::string_view key)
 void IdMap::grow()
 {
     const std::uint64_t capacity = (m_mask + 1) * 2;
-    std::vector<std::uint32_t> slots(capacity, 0), hashes(capacity, 0);
+    std::vector<std::uint64_t> slots(capacity, 0);
     const std::uint64_t mask = capacity - 1;
     for (std::uint32_t i = 0; i < size(); ++i) {
         const std::uint64_t h = hash(id(i));
         std::uint64_t pos = h & mask;
         while (slots[pos] != 0)
             pos = (pos + 1) & mask;
-        slots[pos] = i + 1;
-        hashes[pos] = static_cast<std::uint32_t>(h >> 32);
+        slots[pos] = (h & 0xFFFFFFFF00000000ULL) | (i + 1);
     }
     m_slots.swap(slots);
-    m_hashes.swap(hashes);
     m_mask = mask;
 }
 

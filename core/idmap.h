@@ -36,8 +36,9 @@ private:
     void grow();
     std::string m_arena;
     std::vector<std::uint64_t> m_offsets; ///< size() + 1 entries
-    std::vector<std::uint32_t> m_slots;   ///< index + 1, 0 = empty
-    std::vector<std::uint32_t> m_hashes;  ///< upper bits of each slot's hash, to skip compares
+    /// Per slot: upper 32 bits of the id's hash (to skip most compares) and index + 1 in the
+    /// lower 32 bits; 0 = empty. One array, so a probe costs one cache miss.
+    std::vector<std::uint64_t> m_slots;
     std::uint64_t m_mask = 0;
 };
 

@@ -535,6 +535,8 @@ bool readInteractions(CsvReader& reader, FileRole role, InteractionContext& ctx,
     const std::string& file = reader.path();
     const std::string expectedRating = ctx.scale ? scaleText(*ctx.scale) : std::string("a decimal number");
     std::int64_t rows = 0;
+    std::uint32_t lastUser = 0;
+    std::string lastUserId; // a copy: the map's arena may move when it grows
     for (;;) {
         const auto step = parser.next();
         if (step == CsvParser::Step::End)
@@ -603,7 +605,12 @@ bool readInteractions(CsvReader& reader, FileRole role, InteractionContext& ctx,
                 }
             }
             if (ok) {
-                const std::uint32_t user = ctx.users.insert(f[cUser]).index;
+                // Files are usually grouped by user: skip the hash lookup for a repeated id.
+                if (f[cUser] != lastUserId) {
+                    lastUser = ctx.users.insert(f[cUser]).index;
+                    lastUserId.assign(f[cUser]);
+                }
+                const std::uint32_t user = lastUser;
                 ctx.facts.add(*rating);
                 onRow(user, item, static_cast<float>(*rating), ts, line);
             }
@@ -909,6 +916,13 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
                            static_cast<std::uint32_t>(catalog.items.size())};
     ctx.users.reserve(1024);
 
+    // SQLite's allocation statistics take a global mutex on every malloc; we never read them.
+    // Only possible before SQLite initializes; later calls fail harmlessly.
+    static const bool statsOff = [] {
+        sqlite3_config(SQLITE_CONFIG_MEMSTATUS, 0);
+        return true;
+    }();
+    (void)statsOff;
     TempFile temp(tempPathFor(request.workspacePath));
     SqliteDb db;
     try {
@@ -1083,6 +1097,8 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
         if (progress.cancelled())
             return cancelledError();
         meter.stage(1.0, "building indexes");
+        // Version 2 adds the train index: building it once after loading is cheaper than
+        // maintaining it row by row.
         migrateSchema(db, 1);
         db.exec("COMMIT");
         db.exec("PRAGMA foreign_keys = ON");
