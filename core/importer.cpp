@@ -637,7 +637,9 @@ public:
     void push(std::vector<TrainRow> batch)
     {
         std::unique_lock lock(m_mutex);
-        m_space.wait(lock, [&] { return m_batches.size() < 4 || m_abandoned; });
+        // Up to 64 batches (4 M rows, about 100 MB) may wait: the reader runs ahead of SQLite
+        // and has finished the withheld file by the time the last train rows are written.
+        m_space.wait(lock, [&] { return m_batches.size() < 64 || m_abandoned; });
         if (m_abandoned)
             return;
         m_batches.push_back(std::move(batch));
@@ -930,7 +932,8 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
         // The temporary file is thrown away on any failure, so no journal and no syncs while
         // loading; foreign keys are checked by construction (every key comes from our maps).
         db.exec("PRAGMA journal_mode = OFF; PRAGMA synchronous = OFF; PRAGMA locking_mode = EXCLUSIVE;"
-                "PRAGMA cache_size = -131072; PRAGMA temp_store = MEMORY; PRAGMA foreign_keys = OFF;");
+                "PRAGMA cache_size = -131072; PRAGMA temp_store = MEMORY; PRAGMA foreign_keys = OFF;"
+                "PRAGMA threads = 2;");
         db.exec(schemaVersion1());
         db.exec("BEGIN");
     } catch (const SqliteError& e) {
@@ -1108,6 +1111,7 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
     }
     if (progress.cancelled())
         return cancelledError();
+    meter.stage(1.0, "saving");
     if (!syncFile(temp.path()))
         return workspaceError(request.workspacePath, "cannot flush the new workspace to disk");
     std::error_code ec;
