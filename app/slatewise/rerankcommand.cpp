@@ -1,15 +1,85 @@
 // SPDX-License-Identifier: MIT
+#include "app/slatewise/args.h"
+#include "app/slatewise/cliprogress.h"
 #include "app/slatewise/commands.h"
+#include "app/slatewise/reporting.h"
+#include "app/slatewise/runheadlines.h"
 
+#include "core/fitservice.h"
+#include "core/workspace.h"
+
+#include <cstdio>
 #include <iostream>
 
 namespace slatewise::cli {
 
-// Placeholder until this command is written; reports a usage error rather than pretending.
-int rerankCommand(const std::vector<std::string>&)
+namespace {
+const CommandSpec& spec()
 {
-    std::cerr << "slatewise: this command is not available in this build yet\n";
-    return 1;
+    static const CommandSpec s{
+        "rerank",
+        "WORKSPACE --run NAME --method mmr|series-order|burst-damp --name NEW [--lambda X]",
+        "Re-ranks every list of a run and stores the result as a derived run that records its\n"
+        "parent, method and settings and keeps the parent's scores. mmr trades relevance for\n"
+        "genre diversity (λ = 1 keeps the order); series-order puts first parts before sequels;\n"
+        "burst-damp moves items of a recent-binge genre down toward the user's long-term taste.\n"
+        "Both runs are then evaluated (k = 10) and printed side by side. See docs/models.md.",
+        1,
+        {
+            {"run", "NAME", "the parent run"},
+            {"method", "METHOD", "mmr, series-order or burst-damp"},
+            {"name", "NEW", "name of the derived run"},
+            {"lambda", "X", "mmr: relevance weight 0..1 (default 0.5); burst-damp: damping 0..1 (default 1)"},
+            {"no-evaluate", "", "store the run without evaluating it"},
+            {"replace", "", "replace an existing run of that name"},
+            {"quiet", "", "no progress output"},
+        },
+    };
+    return s;
+}
+} // namespace
+
+int rerankCommand(const std::vector<std::string>& argv)
+{
+    int exitCode = ExitOk;
+    auto args = parseOrExit(spec(), argv, exitCode);
+    if (!args)
+        return exitCode;
+    for (const char* required : {"run", "method", "name"})
+        if (!args->has(required))
+            return usageFailure(spec().name, std::string("--") + required + " is required");
+    const auto method = core::rerankMethodFromString(args->value("method"));
+    if (!method)
+        return usageFailure(spec().name, "unknown method '" + args->value("method") +
+                                             "' (expected mmr, series-order or burst-damp)");
+    core::RerankRequest request;
+    request.parentName = args->value("run");
+    request.name = args->value("name");
+    request.replace = args->has("replace");
+    request.settings = core::RerankSettings::defaults(*method);
+    std::string error;
+    const auto lambda = args->number("lambda", request.settings.lambda, error);
+    if (!error.empty())
+        return usageFailure(spec().name, error);
+    request.settings.lambda = *lambda;
+
+    const std::string path = args->positionals()[0];
+    auto ws = core::Workspace::open(path);
+    if (!ws)
+        return printErrors(spec().name, ws.errors());
+    CliProgress progress(args->has("quiet"));
+    auto info = core::rerankAndStore(ws.value(), request, progress.progress());
+    progress.finish();
+    if (!info)
+        return printErrors(spec().name, info.errors());
+    std::printf("stored run '%s' (%s of '%s', %s): %lld list rows for %lld users\n", info->name.c_str(),
+                info->method.c_str(), info->parentName.c_str(), info->settingsJson.c_str(),
+                static_cast<long long>(info->listRowCount), static_cast<long long>(info->listUserCount));
+    if (args->has("no-evaluate"))
+        return ExitOk;
+    const int rc = printRunHeadlines(ws.value(), {request.parentName, request.name}, progress.progress());
+    progress.finish();
+    return rc;
 }
 
 } // namespace slatewise::cli
