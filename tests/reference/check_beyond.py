@@ -16,7 +16,9 @@ lists only) is written as CSV, imported with `slatewise import` and `add-run`, e
     never shown included (closed form of the issue);
   - popularity_lift per user: popularity percentiles from scipy.stats.percentileofscore(kind='mean');
   - ild per user: numpy mean pairwise Jaccard distance of genre sets (Ziegler et al., WWW 2005);
-  - seen_in_list per user and its total: numpy set membership.
+  - seen_in_list per user and its total: numpy set membership;
+  - `slatewise explain --json`: seen and hit markers, calibration_kl and the withheld order for
+    a dozen users, against the same references.
 
 Run with Debian's /usr/bin/python3:  check_beyond.py --cli PATH_TO_slatewise --workdir DIR
 """
@@ -224,6 +226,25 @@ def main():
     check("run gini (closed form, numpy)", beyond["gini"], run["gini"])
     check("run novelty (numpy)", beyond["novelty"], run["novelty"])
     check("run seen_in_list total", beyond["seen_in_list"], run["seen_in_list"])
+
+    # `explain --json -` must show the same facts as the per-user results: seen markers as
+    # counted by the numpy reference, hits against the withheld ratings, and the stored value.
+    withheld_rating = {(u, i): r for u, i, r, _ in withheld}
+    for user in sorted(per_user)[:12]:
+        proc = run_cli(a.cli, "explain", ws, "--run", "random", "--user", user, "--k", str(K), "--bootstrap", "0",
+                       "--json", "-", "--quiet")
+        x = json.loads(proc.stdout)
+        seen = sum(1 for r in x["list"] if r["seen"])
+        check(f"explain {user} seen markers (numpy)", float(seen) if x["list"] else None, per_user[user]["seen_in_list"])
+        for r in x["list"]:
+            rating = withheld_rating.get((user, r["item_id"]))
+            if bool(r["hit"]) != (rating is not None and rating >= 4.0):
+                failures.append(f"explain {user} rank {r['rank']}: hit marker {r['hit']}, rating {rating}")
+        check(f"explain {user} calibration_kl (scipy)", x["metrics"]["calibration_kl"]["user"],
+              per_user[user]["calibration_kl"])
+        ratings = [w["rating"] for w in x["withheld"]]
+        if ratings != sorted(ratings, reverse=True):
+            failures.append(f"explain {user}: withheld not sorted by rating descending")
 
     checked = sum(1 for r in per_user.values() if r["calibration_kl"] is not None)
     if checked < 30:
