@@ -270,6 +270,9 @@ int evaluateCommand(const std::vector<std::string>& argv)
     }
     if (!args->has("json")) {
         std::ostringstream out;
+        out << "Settings: k = " << settings->k << ", relevant = withheld rating >= "
+            << core::formatDouble(settings->relevantAt) << ", " << settings->bootstrap
+            << " bootstrap resamples (seed " << settings->seed << ")\n\n";
         if (evals.size() > 1)
             printOverview(out, evals, settings->k);
         TablePrinter table{out};
