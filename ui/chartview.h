@@ -1,10 +1,14 @@
 // SPDX-License-Identifier: MIT
 #pragma once
 
+#include <QFont>
 #include <QString>
 #include <QWidget>
 
 class QCustomPlot;
+class QCPAxis;
+class QCPAxisRect;
+class QCPLegend;
 
 namespace slatewise::ui {
 
@@ -42,10 +46,23 @@ protected:
     virtual void rebuild(const ChartPalette& palette) = 0;
     void setEmpty(bool empty, const QString& emptyText = {});
 
-    // Helpers shared by the subclasses; all take colours from `palette`.
-    void styleAxes(const ChartPalette& palette);
-    void addTitle(const ChartPalette& palette, const QString& subtitle = {});
+    // Helpers shared by the subclasses; all take colours from `palette`. Layout is one column:
+    // title, optional subtitle, the subclass's axis rects, then the legend in its own row so
+    // it never covers data.
+    /// Adds title (and subtitle) rows at the top; returns the next free row.
+    int addTitle(const ChartPalette& palette, const QString& subtitle = {});
+    /// A new styled axis rect at (row, column) of the main layout.
+    QCPAxisRect* addAxisRect(const ChartPalette& palette, int row, int column = 0);
+    /// Colours, fonts and label of one axis.
+    void styleAxis(QCPAxis* axis, const ChartPalette& palette, const QString& label);
+    /// Sets range and ticks from NiceAxis (labels with just enough decimals).
+    void setNiceRange(QCPAxis* axis, double min, double max, int ticks = 5);
+    /// A legend in its own row below the plots, entries laid out in `columns` columns.
+    QCPLegend* addLegendRow(const ChartPalette& palette, int row, int columns = 4);
+    /// Shows only the title and the empty text (nothing drawable was given).
     void showEmptyMessage(const ChartPalette& palette);
+    /// Base font for chart text (the widget font at a size that reads in exports too).
+    QFont chartFont(double scale = 1.0, bool bold = false) const;
 
 private:
     QCustomPlot* m_plot = nullptr;

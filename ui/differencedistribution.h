@@ -4,7 +4,6 @@
 #include "core/metric.h"
 
 #include <cstdint>
-#include <span>
 #include <vector>
 
 namespace slatewise::ui {
@@ -21,7 +20,7 @@ struct DifferenceDistribution {
     double median = 0.0;
     core::Better better = core::Better::Higher;
 
-    static DifferenceDistribution build(std::span<const double> differences, core::Better better,
+    static DifferenceDistribution build(const std::vector<double>& differences, core::Better better,
                                         double tieTolerance = 1e-9);
 
     std::int64_t count() const { return static_cast<std::int64_t>(sorted.size()); }

@@ -1,12 +1,16 @@
 // SPDX-License-Identifier: MIT
 #pragma once
 
-#include "core/dataset.h"
 #include "core/ids.h"
 
 #include <cstdint>
+#include <limits>
 #include <string>
 #include <vector>
+
+namespace slatewise::core {
+struct Dataset;
+}
 
 namespace slatewise::ui {
 
@@ -19,8 +23,10 @@ struct GenreTimeline {
     struct Bucket {
         std::int64_t firstIndex = 0;  ///< position of its first interaction (0 = oldest)
         std::int64_t count = 0;       ///< interactions in the bucket
-        core::Timestamp firstTime = core::kNoTimestamp;
-        core::Timestamp lastTime = core::kNoTimestamp;
+        // Unix seconds (core::Timestamp); core::kNoTimestamp when unknown. Plain integers here
+        // so that this header stays light for moc.
+        std::int64_t firstTime = std::numeric_limits<std::int64_t>::min();
+        std::int64_t lastTime = std::numeric_limits<std::int64_t>::min();
         bool recent = false;          ///< the recent window
         std::vector<double> weight;   ///< per shown genre (same order as `genres`)
 

@@ -3,6 +3,7 @@
 
 #include "core/error.h"
 #include "core/evaluation.h"
+#include "ui/runerrors.h"
 
 #include <QString>
 #include <QStringList>
@@ -67,6 +68,7 @@ struct MeetingPackContent {
     QString generatedAt;     ///< ISO 8601
     QString settingsText;    ///< "k = 10, relevant at ≥ 4.0, 1000 bootstrap resamples"
     std::vector<core::RunEvaluation> runs; ///< per-user tables not needed
+    std::vector<RunErrors> errors;           ///< optional: per-run errors for the distribution chart
     std::optional<PackComparison> comparison;
     PackTable worstUsers;    ///< the ten worst-served users
     std::vector<PackCaseStudy> caseStudies; ///< three users
@@ -79,7 +81,8 @@ struct MeetingPackContent {
 class MeetingPack {
 public:
     static core::Status write(const MeetingPackContent& content, const QString& path);
-    /// The run summary table (one row per run, aggregates with 95% intervals) as text cells.
+    /// The run summary table (one row per run, aggregates with 95% intervals) as text cells;
+    /// the pack prints it turned (one column per run) to fit the page.
     static PackTable runSummary(const std::vector<core::RunEvaluation>& runs);
     /// "not significant (p = 0.41; the interval −0.01 to 0.02 includes 0)" or
     /// "significant: candidate better (p = 0.003)".

@@ -1,12 +1,14 @@
 // SPDX-License-Identifier: MIT
 #pragma once
 
-#include "core/dataset.h"
-#include "core/run.h"
-
 #include <QString>
 
 #include <vector>
+
+namespace slatewise::core {
+struct Dataset;
+struct RunData;
+}
 
 namespace slatewise::ui {
 

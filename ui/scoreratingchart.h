@@ -1,14 +1,17 @@
 // SPDX-License-Identifier: MIT
 #pragma once
 
-#include "core/dataset.h"
 #include "core/ids.h"
-#include "core/run.h"
 #include "ui/chartview.h"
 
 #include <QString>
 
 #include <vector>
+
+namespace slatewise::core {
+struct Dataset;
+struct RunData;
+}
 
 namespace slatewise::ui {
 

@@ -1,15 +1,133 @@
 // SPDX-License-Identifier: MIT
+#include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
 
 #include <iostream>
 
+#ifdef SLATEWISE_WITH_UI
+#include "core/error.h"
+#include "ui/chartexporter.h"
+#include "ui/chartview.h"
+#include "ui/csvexporter.h"
+#include "ui/workspacereport.h"
+
+#include <QApplication>
+#include <QDir>
+#include <QStandardItemModel>
+#endif
+
 namespace slatewise::cli {
 
-// Placeholder until this command is written; reports a usage error rather than pretending.
-int exportCommand(const std::vector<std::string>&)
+namespace {
+const CommandSpec& exportSpec()
 {
-    std::cerr << "slatewise: this command is not available in this build yet\n";
-    return 1;
+    static const CommandSpec spec{
+        "export",
+        "WORKSPACE --out DIR [--run NAME]... [--width PX] [--height PX] [--dpi N]",
+        "Evaluates the runs (all runs when no --run is given) and writes every chart as PNG, SVG and PDF "
+        "into DIR, plus the tables (run summary, error by rating, k-curves, warning shares, worst-served "
+        "users) as CSV. Needs no display.",
+        1,
+        {{"out", "DIR", "directory to write into (created when missing)"},
+         {"run", "NAME", "a run to include (repeat for several; default: all runs)", true},
+         {"width", "PX", "PNG width in pixels (default 1600)"},
+         {"height", "PX", "PNG height in pixels (default 1000)"},
+         {"dpi", "N", "PNG resolution; text keeps its physical size (default 144)"},
+         {"k", "N", "list length for the ranking measures (default 10)"},
+         {"relevant-at", "X", "withheld rating from which an item is relevant (default 4.0)"}}};
+    return spec;
 }
+} // namespace
+
+#ifdef SLATEWISE_WITH_UI
+namespace {
+int reportErrors(const std::vector<core::Error>& errors)
+{
+    for (const auto& e : errors)
+        std::cerr << "slatewise export: " << e.toString() << "\n";
+    return core::exitCodeFor(errors);
+}
+} // namespace
+
+int exportCommand(const std::vector<std::string>& argv)
+{
+    int exitCode = ExitOk;
+    const auto args = parseOrExit(exportSpec(), argv, exitCode);
+    if (!args)
+        return exitCode;
+    std::string error;
+    const auto width = args->integer("width", 1600, error);
+    const auto height = width ? args->integer("height", 1000, error) : std::nullopt;
+    const auto dpi = height ? args->integer("dpi", 144, error) : std::nullopt;
+    const auto k = dpi ? args->integer("k", 10, error) : std::nullopt;
+    const auto relevantAt = k ? args->number("relevant-at", 4.0, error) : std::nullopt;
+    if (!relevantAt || !args->has("out")) {
+        std::cerr << "slatewise export: " << (error.empty() ? std::string("--out DIR is required") : error) << "\n";
+        return ExitUsage;
+    }
+    if (*width < 16 || *height < 16 || *width > 20000 || *height > 20000 || *dpi < 24 || *dpi > 1200 || *k < 1) {
+        std::cerr << "slatewise export: --width and --height must be 16..20000 pixels, --dpi 24..1200, --k at least 1\n";
+        return ExitUsage;
+    }
+
+    // Headless: no display is needed or used.
+    qputenv("QT_QPA_PLATFORM", "offscreen");
+    static int qtArgc = 1;
+    static char qtName[] = "slatewise";
+    static char* qtArgv[] = {qtName, nullptr};
+    QApplication app(qtArgc, qtArgv);
+
+    core::EvalSettings settings;
+    settings.k = static_cast<std::int32_t>(*k);
+    settings.relevantAt = *relevantAt;
+    auto report = ui::WorkspaceReport::load(args->positionals().front(), args->values("run"), settings);
+    if (!report)
+        return reportErrors(report.errors());
+
+    const QString out = QString::fromStdString(args->value("out"));
+    if (!QDir().mkpath(out)) {
+        core::Error e{core::ErrorKind::Workspace, args->value("out"), 0, 0, {}, "cannot create the output directory",
+                      "a writable directory"};
+        return reportErrors({e});
+    }
+    const QDir dir(out);
+    const QSize pixels(static_cast<int>(*width), static_cast<int>(*height));
+    // Vector formats at the logical size that matches the PNG's physical size.
+    const double scale = static_cast<double>(*dpi) / 96.0;
+    const QSize logical(static_cast<int>(*width / scale + 0.5), static_cast<int>(*height / scale + 0.5));
+    int files = 0;
+    for (const auto& chart : report->charts()) {
+        const QString stem = dir.filePath(chart->fileStem());
+        for (const auto& status :
+             {ui::ChartExporter::savePng(*chart, stem + QStringLiteral(".png"), pixels, static_cast<int>(*dpi)),
+              ui::ChartExporter::saveSvg(*chart, stem + QStringLiteral(".svg"), logical),
+              ui::ChartExporter::savePdf(*chart, stem + QStringLiteral(".pdf"), logical)}) {
+            if (!status)
+                return reportErrors(status.errors());
+            ++files;
+        }
+        std::cout << chart->fileStem().toStdString() << ": " << chart->title().toStdString()
+                  << (chart->isEmpty() ? " (no data: the chart says why)" : "") << "\n";
+    }
+    for (const auto& table : report->tables()) {
+        const auto status = ui::CsvExporter::write(*table.model, dir.filePath(table.stem + QStringLiteral(".csv")));
+        if (!status)
+            return reportErrors(status.errors());
+        ++files;
+        std::cout << table.stem.toStdString() << ".csv: " << table.model->rowCount() << " rows\n";
+    }
+    std::cout << "wrote " << files << " files to " << out.toStdString() << "\n";
+    return ExitOk;
+}
+#else
+int exportCommand(const std::vector<std::string>& argv)
+{
+    int exitCode = ExitOk;
+    if (!parseOrExit(exportSpec(), argv, exitCode))
+        return exitCode;
+    std::cerr << "slatewise export: this build has no Qt layer (configured with SLATEWISE_BUILD_GUI=OFF)\n";
+    return ExitUsage;
+}
+#endif
 
 } // namespace slatewise::cli

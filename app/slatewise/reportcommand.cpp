@@ -1,15 +1,125 @@
 // SPDX-License-Identifier: MIT
+#include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
 
+#include <algorithm>
 #include <iostream>
+
+#ifdef SLATEWISE_WITH_UI
+#include "core/error.h"
+#include "ui/meetingpack.h"
+#include "ui/workspacereport.h"
+
+#include <QApplication>
+#include <QFileInfo>
+#endif
 
 namespace slatewise::cli {
 
-// Placeholder until this command is written; reports a usage error rather than pretending.
-int reportCommand(const std::vector<std::string>&)
+namespace {
+const CommandSpec& reportSpec()
 {
-    std::cerr << "slatewise: this command is not available in this build yet\n";
-    return 1;
+    static const CommandSpec spec{
+        "report",
+        "WORKSPACE --out FILE.pdf [--base A --candidate B] [--run NAME]...",
+        "Writes the meeting pack: a multi-page A4 PDF with the run summary, the error-by-rating chart, the "
+        "k-curves, warning prevalence, the comparison of B against A (when both are given), the ten "
+        "worst-served users and three user case studies. Needs no display.",
+        1,
+        {{"out", "FILE", "the PDF to write"},
+         {"base", "NAME", "the run to compare against"},
+         {"candidate", "NAME", "the run being judged; its worst-served users are the case studies"},
+         {"run", "NAME", "a run to include (repeat for several; default: all runs)", true},
+         {"k", "N", "list length for the ranking measures (default 10)"},
+         {"relevant-at", "X", "withheld rating from which an item is relevant (default 4.0)"}}};
+    return spec;
 }
+} // namespace
+
+#ifdef SLATEWISE_WITH_UI
+namespace {
+int reportErrors(const std::vector<core::Error>& errors)
+{
+    for (const auto& e : errors)
+        std::cerr << "slatewise report: " << e.toString() << "\n";
+    return core::exitCodeFor(errors);
+}
+} // namespace
+
+int reportCommand(const std::vector<std::string>& argv)
+{
+    int exitCode = ExitOk;
+    const auto args = parseOrExit(reportSpec(), argv, exitCode);
+    if (!args)
+        return exitCode;
+    std::string error;
+    const auto k = args->integer("k", 10, error);
+    const auto relevantAt = k ? args->number("relevant-at", 4.0, error) : std::nullopt;
+    if (!relevantAt || !args->has("out")) {
+        std::cerr << "slatewise report: " << (error.empty() ? std::string("--out FILE.pdf is required") : error) << "\n";
+        return ExitUsage;
+    }
+    if (args->has("base") != args->has("candidate")) {
+        std::cerr << "slatewise report: give both --base and --candidate, or neither\n";
+        return ExitUsage;
+    }
+    if (*k < 1) {
+        std::cerr << "slatewise report: --k must be at least 1\n";
+        return ExitUsage;
+    }
+    std::vector<std::string> runs = args->values("run");
+    if (!runs.empty() && args->has("base")) {
+        // The compared runs are always part of the pack.
+        for (const auto& name : {args->value("base"), args->value("candidate")})
+            if (std::find(runs.begin(), runs.end(), name) == runs.end())
+                runs.push_back(name);
+    }
+
+    qputenv("QT_QPA_PLATFORM", "offscreen");
+    static int qtArgc = 1;
+    static char qtName[] = "slatewise";
+    static char* qtArgv[] = {qtName, nullptr};
+    QApplication app(qtArgc, qtArgv);
+
+    core::EvalSettings settings;
+    settings.k = static_cast<std::int32_t>(*k);
+    settings.relevantAt = *relevantAt;
+    auto report = ui::WorkspaceReport::load(args->positionals().front(), runs, settings);
+    if (!report)
+        return reportErrors(report.errors());
+
+    std::optional<std::size_t> base, candidate;
+    if (args->has("base")) {
+        base = report->runIndex(args->value("base"));
+        candidate = report->runIndex(args->value("candidate"));
+        for (const auto& [index, name] : {std::pair{base, args->value("base")}, std::pair{candidate, args->value("candidate")}}) {
+            if (!index) {
+                core::Error e{core::ErrorKind::Usage, args->positionals().front(), 0, 0, name, "no such run",
+                              "the name of a run in the workspace (see 'slatewise info')"};
+                return reportErrors({e});
+            }
+        }
+        if (*base == *candidate) {
+            std::cerr << "slatewise report: --base and --candidate name the same run\n";
+            return ExitUsage;
+        }
+    }
+    const QString out = QString::fromStdString(args->value("out"));
+    const auto status = ui::MeetingPack::write(report->packContent(base, candidate), out);
+    if (!status)
+        return reportErrors(status.errors());
+    std::cout << "wrote the meeting pack to " << QFileInfo(out).absoluteFilePath().toStdString() << "\n";
+    return ExitOk;
+}
+#else
+int reportCommand(const std::vector<std::string>& argv)
+{
+    int exitCode = ExitOk;
+    if (!parseOrExit(reportSpec(), argv, exitCode))
+        return exitCode;
+    std::cerr << "slatewise report: this build has no Qt layer (configured with SLATEWISE_BUILD_GUI=OFF)\n";
+    return ExitUsage;
+}
+#endif
 
 } // namespace slatewise::cli
