@@ -108,8 +108,16 @@ void printText(std::ostream& out, const core::UserExplanation& x)
         if (x.fullListLength > static_cast<std::int32_t>(x.list.size()))
             out << " (of " << x.fullListLength << " listed)";
         out << "\n";
+        // Columns as wide as the longest title and genre list shown (within reason).
+        std::size_t titleWidth = 5, genreWidth = 6;
+        for (const auto& r : x.list) {
+            titleWidth = std::max(titleWidth, pad(titleWithYear(r.title, r.year), 0).size());
+            genreWidth = std::max(genreWidth, joined(r.genres, "/").size());
+        }
+        titleWidth = std::min<std::size_t>(titleWidth, 64);
+        genreWidth = std::min<std::size_t>(genreWidth, 32);
         out << pad("rank", 5, true) << "  " << pad("marks", 5) << "  " << pad("score", 8, true) << "  "
-            << pad("title", 40) << "  " << pad("genres", 24) << "  series\n";
+            << pad("title", titleWidth) << "  " << pad("genres", genreWidth) << "  series\n";
         for (const auto& r : x.list) {
             std::string marks;
             marks += r.hit ? 'H' : (r.withheld ? 'w' : '.');
@@ -124,7 +132,8 @@ void printText(std::ostream& out, const core::UserExplanation& x)
                           ")";
             }
             out << pad(std::to_string(r.rank), 5, true) << "  " << pad(marks, 5) << "  " << pad(fixed(r.score, 3), 8, true)
-                << "  " << pad(titleWithYear(r.title, r.year), 40) << "  " << pad(joined(r.genres, "/"), 24) << "  "
+                << "  " << pad(titleWithYear(r.title, r.year), titleWidth) << "  "
+                << pad(joined(r.genres, "/"), genreWidth) << "  "
                 << series << "\n";
         }
         out << "Marks: H = hit (withheld, rated >= " << compact(x.relevantAt)
@@ -136,7 +145,7 @@ void printText(std::ostream& out, const core::UserExplanation& x)
         out << "No withheld titles for this user.\n\n";
     } else {
         out << "Withheld titles, best rated first\n";
-        out << pad("rating", 6, true) << "  " << pad("score", 8, true) << "  " << pad("in list", 22) << "  title\n";
+        out << pad("rating", 6, true) << "  " << pad("score", 8, true) << "  " << pad("in list", 28) << "  title\n";
         for (const auto& w : x.withheld) {
             std::string where;
             if (w.listRank == 0)
@@ -149,7 +158,7 @@ void printText(std::ostream& out, const core::UserExplanation& x)
             if (!w.series.empty())
                 title += "  [" + seriesLabel(w.series, w.seriesPart) + "]";
             out << pad(compact(w.rating) + (w.relevant ? "*" : " "), 6, true) << "  "
-                << pad(x.runHasScores ? fixed(w.score, 3) : std::string("-"), 8, true) << "  " << pad(where, 22)
+                << pad(x.runHasScores ? fixed(w.score, 3) : std::string("-"), 8, true) << "  " << pad(where, 28)
                 << "  " << title << "\n";
         }
         out << "* = relevant (rated >= " << compact(x.relevantAt) << ")";
