@@ -96,6 +96,8 @@ InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
     lower->setStretchFactor(1, 2);
     lower->setStretchFactor(2, 2);
     lower->setStretchFactor(3, 3);
+    // Wide enough for the metric table's three columns and the chart titles.
+    lower->setSizes({330, 420, 430, 420});
 
     auto* split = new QSplitter(Qt::Vertical, this);
     split->addWidget(lists);

@@ -79,6 +79,8 @@ OverviewScreen::OverviewScreen(WorkspaceDocument* document, QWidget* parent)
     splitter->addWidget(chartHost);
     splitter->setStretchFactor(0, 1);
     splitter->setStretchFactor(1, 4);
+    // Room for a handful of runs above the charts.
+    splitter->setSizes({170, 800});
 
     auto* layout = new QVBoxLayout(this);
     layout->addLayout(controls);
