@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 // Chart maths: binning, axis ranges, band grouping, k-curves, per-user differences and the
 // genre timeline, as pure functions.
+#include "core/dataset.h"
+#include "core/run.h"
 #include "support/testsupport.h"
 #include "ui/bandgrouping.h"
 #include "ui/differencedistribution.h"
