@@ -146,7 +146,7 @@ QCPLegend* ChartView::addLegendRow(const ChartPalette& palette, int row, int col
     legend->setTextColor(palette.text());
     legend->setFont(chartFont(0.95));
     legend->setIconSize(22, 12);
-    legend->setMargins(QMargins(8, 2, 8, 6));
+    legend->setMargins(QMargins(8, 4, 8, 16)); // room below the text, which was clipped at the bottom edge
     m_plot->plotLayout()->setRowStretchFactor(row, 0.001);
     m_plot->legend = legend;
     return legend;
