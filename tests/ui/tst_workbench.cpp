@@ -2,6 +2,7 @@
 // The workbench end to end, offscreen: open a demo workspace, take the worst-served user into
 // the inspector and check its two lists and warnings against `slatewise explain`; cancel an
 // import and an added run and check that nothing was written.
+#include "core/evaluation.h"
 #include "core/syntheticdata.h"
 #include "support/testsupport.h"
 #include "ui/backgroundtask.h"
