@@ -128,7 +128,7 @@ public:
     }
     void heading(const QString& t)
     {
-        ensure(30 * m_mm); // never a heading alone at the bottom of a page
+        ensure(70 * m_mm); // never a heading alone at the bottom of a page
         if (m_y > 0)
             m_y += 3 * m_mm;
         text(t, 14, true, QColor(0x1d, 0x3d, 0x63), 2.5);
@@ -145,8 +145,10 @@ public:
     /// Column widths proportional to the longest line in each column, within limits.
     void table(const PackTable& table, double fontPoints = 8.5, std::vector<double> weights = {})
     {
-        if (!table.title.isEmpty())
+        if (!table.title.isEmpty()) {
+            ensure(40 * m_mm); // keep the title with the first rows
             text(table.title, 10.5, true, Qt::black, 1.5);
+        }
         const int columns = static_cast<int>(table.headers.size());
         if (columns == 0)
             return;
@@ -478,7 +480,7 @@ core::Status MeetingPack::write(const MeetingPackContent& content, const QString
             page.paragraph(tr("No warning for this user."));
         else
             page.bullets(study.warnings);
-        page.table(study.list, 8);
+        page.table(study.list, 8, {6, 30, 20, 22, 8, 22});
         page.table(study.withheld, 8);
     }
     page.end();
