@@ -123,7 +123,19 @@ bool UserBrowserProxy::lessThan(const QModelIndex& left, const QModelIndex& righ
     }
     if (a != b)
         return a > b;
-    // Ties keep the stored (user index) order in both directions.
+    // Many users tie (an NDCG of 0 is common), so among equals the user carrying more
+    // warnings, then the one with more withheld favourites the run missed, reads as worse.
+    if (column != UserBrowserModel::Warnings) {
+        const double wa = m_browser->sortValue(left.row(), UserBrowserModel::Warnings);
+        const double wb = m_browser->sortValue(right.row(), UserBrowserModel::Warnings);
+        if (wa != wb)
+            return wa > wb;
+        const double ra = m_browser->sortValue(left.row(), UserBrowserModel::Relevant);
+        const double rb = m_browser->sortValue(right.row(), UserBrowserModel::Relevant);
+        if (ra != rb)
+            return ra > rb;
+    }
+    // Remaining ties keep the stored (user index) order in both directions.
     return ascending ? left.row() < right.row() : left.row() > right.row();
 }
 
