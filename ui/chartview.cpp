@@ -5,6 +5,8 @@
 #include "ui/niceaxis.h"
 
 #include <QEvent>
+#include <QFontMetrics>
+#include <QResizeEvent>
 #include <QVBoxLayout>
 
 #include <qcustomplot.h>
@@ -67,6 +69,43 @@ void ChartView::refresh()
     m_plot->replot(QCustomPlot::rpQueuedReplot);
 }
 
+QString ChartView::wrapToWidth(const QString& text, const QFont& font) const
+{
+    // Only a chart on screen knows its width; exports lay out at their own size.
+    if (!isVisible() || m_plot->width() < 100)
+        return text;
+    const QFontMetrics metrics(font);
+    const int available = m_plot->width() - 24;
+    if (metrics.horizontalAdvance(text) <= available)
+        return text;
+    QString wrapped;
+    QString line;
+    for (const QString& word : text.split(QLatin1Char(' '), Qt::SkipEmptyParts)) {
+        const QString candidate = line.isEmpty() ? word : line + QLatin1Char(' ') + word;
+        if (!line.isEmpty() && metrics.horizontalAdvance(candidate) > available) {
+            wrapped += line + QLatin1Char('\n');
+            line = word;
+        } else {
+            line = candidate;
+        }
+    }
+    return wrapped + line;
+}
+
+void ChartView::resizeEvent(QResizeEvent* event)
+{
+    QWidget::resizeEvent(event);
+    // Titles are wrapped to the width, so a visible chart lays out again when it changes.
+    if (isVisible() && event->oldSize().width() != event->size().width())
+        refresh();
+}
+
+void ChartView::showEvent(QShowEvent* event)
+{
+    QWidget::showEvent(event);
+    refresh(); // data may have arrived while hidden, laid out for no width
+}
+
 void ChartView::changeEvent(QEvent* event)
 {
     QWidget::changeEvent(event);
@@ -80,12 +119,12 @@ int ChartView::addTitle(const ChartPalette& palette, const QString& subtitle)
     int row = layout->rowCount();
     if (layout->elementCount() == 1 && !layout->elementAt(0))
         row = 0; // the empty grid after clear() still reports one cell
-    auto* title = new QCPTextElement(m_plot, m_title, chartFont(1.3, true));
+    auto* title = new QCPTextElement(m_plot, wrapToWidth(m_title, chartFont(1.3, true)), chartFont(1.3, true));
     title->setTextColor(palette.text());
     title->setMargins(QMargins(8, 8, 8, subtitle.isEmpty() ? 4 : 0));
     layout->addElement(row++, 0, title);
     if (!subtitle.isEmpty()) {
-        auto* sub = new QCPTextElement(m_plot, subtitle, chartFont(0.95));
+        auto* sub = new QCPTextElement(m_plot, wrapToWidth(subtitle, chartFont(0.95)), chartFont(0.95));
         sub->setTextColor(palette.axis());
         sub->setMargins(QMargins(8, 2, 8, 4));
         layout->addElement(row++, 0, sub);

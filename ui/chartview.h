@@ -41,6 +41,8 @@ protected:
     void setTitle(const QString& title);
     void setFileStem(const QString& stem) { m_fileStem = stem; }
     void changeEvent(QEvent* event) override;
+    void resizeEvent(QResizeEvent* event) override;
+    void showEvent(QShowEvent* event) override;
 
     /// Subclasses clear the plot and draw their data here. `empty` reports "nothing to draw".
     virtual void rebuild(const ChartPalette& palette) = 0;
@@ -65,6 +67,9 @@ protected:
     QFont chartFont(double scale = 1.0, bool bold = false) const;
 
 private:
+    /// `text` broken into lines that fit the plot's current width in `font`.
+    QString wrapToWidth(const QString& text, const QFont& font) const;
+
     QCustomPlot* m_plot = nullptr;
     QString m_title;
     QString m_fileStem;

@@ -123,7 +123,7 @@ int pdfPageCount(const QByteArray& pdf)
 {
     // Page objects are "/Type /Page" (or "/Type/Page"); "/Pages" is the tree node, not a page.
     int count = 0;
-    for (const QByteArray needle : {QByteArray("/Type /Page"), QByteArray("/Type/Page")}) {
+    for (const QByteArray& needle : {QByteArray("/Type /Page"), QByteArray("/Type/Page")}) {
         qsizetype from = 0;
         while ((from = pdf.indexOf(needle, from)) >= 0) {
             from += needle.size();
