@@ -7,7 +7,7 @@ set -euo pipefail
 packages=(
   build-essential cmake ninja-build ccache pkg-config
   libsqlite3-dev sqlite3 libeigen3-dev nlohmann-json3-dev
-  qt6-base-dev qt6-svg-dev libqt6svg6-dev libgl-dev libqcustomplot-dev libqcustomplot2.1-qt6
+  qt6-base-dev qt6-svg-dev libgl-dev libqcustomplot-dev libqcustomplot2.1-qt6
   python3-numpy python3-scipy python3-sklearn
   fonts-dejavu-core poppler-utils xvfb xauth
 )
