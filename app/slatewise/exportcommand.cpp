@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 #include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
+#include "app/slatewise/reporting.h"
 
 #include <iostream>
 
@@ -40,15 +41,6 @@ const CommandSpec& exportSpec()
 } // namespace
 
 #ifdef SLATEWISE_WITH_UI
-namespace {
-int reportErrors(const std::vector<core::Error>& errors)
-{
-    for (const auto& e : errors)
-        std::cerr << "slatewise export: " << e.toString() << "\n";
-    return core::exitCodeFor(errors);
-}
-} // namespace
-
 int exportCommand(const std::vector<std::string>& argv)
 {
     int exitCode = ExitOk;
@@ -82,13 +74,13 @@ int exportCommand(const std::vector<std::string>& argv)
     settings.relevantAt = *relevantAt;
     auto report = ui::WorkspaceReport::load(args->positionals().front(), args->values("run"), settings);
     if (!report)
-        return reportErrors(report.errors());
+        return printErrors("export", report.errors());
 
     const QString out = QString::fromStdString(args->value("out"));
     if (!QDir().mkpath(out)) {
         core::Error e{core::ErrorKind::Workspace, args->value("out"), 0, 0, {}, "cannot create the output directory",
                       "a writable directory"};
-        return reportErrors({e});
+        return printErrors("export", {e});
     }
     const QDir dir(out);
     const QSize pixels(static_cast<int>(*width), static_cast<int>(*height));
@@ -103,7 +95,7 @@ int exportCommand(const std::vector<std::string>& argv)
               ui::ChartExporter::saveSvg(*chart, stem + QStringLiteral(".svg"), logical),
               ui::ChartExporter::savePdf(*chart, stem + QStringLiteral(".pdf"), logical)}) {
             if (!status)
-                return reportErrors(status.errors());
+                return printErrors("export", status.errors());
             ++files;
         }
         std::cout << chart->fileStem().toStdString() << ": " << chart->title().toStdString()
@@ -112,7 +104,7 @@ int exportCommand(const std::vector<std::string>& argv)
     for (const auto& table : report->tables()) {
         const auto status = ui::CsvExporter::write(*table.model, dir.filePath(table.stem + QStringLiteral(".csv")));
         if (!status)
-            return reportErrors(status.errors());
+            return printErrors("export", status.errors());
         ++files;
         std::cout << table.stem.toStdString() << ".csv: " << table.model->rowCount() << " rows\n";
     }

@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 #include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
+#include "app/slatewise/reporting.h"
 
 #include <algorithm>
 #include <iostream>
@@ -37,15 +38,6 @@ const CommandSpec& reportSpec()
 } // namespace
 
 #ifdef SLATEWISE_WITH_UI
-namespace {
-int reportErrors(const std::vector<core::Error>& errors)
-{
-    for (const auto& e : errors)
-        std::cerr << "slatewise report: " << e.toString() << "\n";
-    return core::exitCodeFor(errors);
-}
-} // namespace
-
 int reportCommand(const std::vector<std::string>& argv)
 {
     int exitCode = ExitOk;
@@ -86,7 +78,7 @@ int reportCommand(const std::vector<std::string>& argv)
     settings.relevantAt = *relevantAt;
     auto report = ui::WorkspaceReport::load(args->positionals().front(), runs, settings);
     if (!report)
-        return reportErrors(report.errors());
+        return printErrors("report", report.errors());
 
     std::optional<std::size_t> base, candidate;
     if (args->has("base")) {
@@ -96,7 +88,7 @@ int reportCommand(const std::vector<std::string>& argv)
             if (!index) {
                 core::Error e{core::ErrorKind::Usage, args->positionals().front(), 0, 0, name, "no such run",
                               "the name of a run in the workspace (see 'slatewise info')"};
-                return reportErrors({e});
+                return printErrors("report", {e});
             }
         }
         if (*base == *candidate) {
@@ -107,7 +99,7 @@ int reportCommand(const std::vector<std::string>& argv)
     const QString out = QString::fromStdString(args->value("out"));
     const auto status = ui::MeetingPack::write(report->packContent(base, candidate), out);
     if (!status)
-        return reportErrors(status.errors());
+        return printErrors("report", status.errors());
     std::cout << "wrote the meeting pack to " << QFileInfo(out).absoluteFilePath().toStdString() << "\n";
     return ExitOk;
 }
