@@ -21,26 +21,33 @@ namespace slatewise::core {
 /// and turning per-user lists and per-pair scores into a RunData.
 class RunAssembly {
 public:
-    /// Runs fn(index, worker) for index in [0, n) on all cores. Worker 0 reports progress
+    /// Runs fn(index, worker) for index in [0, n) on all cores. Indices are handed out in
+    /// small chunks from a shared counter, so rows of very different cost (a popular item
+    /// against a niche one) still keep both cores busy; each index's result depends only on
+    /// the index, so the outcome does not depend on the schedule. Worker 0 reports progress
     /// as a fraction mapped into [from, to] under `stage`. Returns false when cancelled
     /// (the remaining indices are skipped).
     template <typename Fn>
     static bool forEach(std::size_t n, const Progress& progress, std::string_view stage, double from, double to,
                         Fn&& fn)
     {
+        constexpr std::size_t kChunk = 64;
+        std::atomic<std::size_t> next{0};
         std::atomic<bool> stop{false};
-        parallelFor(n, [&](std::size_t begin, std::size_t end, unsigned worker) {
-            for (std::size_t i = begin; i < end; ++i) {
-                if (((i - begin) & 1023u) == 0) {
-                    if (progress.cancelled())
-                        stop.store(true, std::memory_order_relaxed);
-                    if (stop.load(std::memory_order_relaxed))
-                        return;
-                    if (worker == 0 && progress.report && end > begin)
-                        progress(from + (to - from) * static_cast<double>(i - begin) / static_cast<double>(end - begin),
-                                 stage);
-                }
-                fn(i, worker);
+        parallelFor(workerCount(), [&](std::size_t, std::size_t, unsigned worker) {
+            for (std::size_t taken = 0;; ++taken) {
+                if (progress.cancelled())
+                    stop.store(true, std::memory_order_relaxed);
+                if (stop.load(std::memory_order_relaxed))
+                    return;
+                const std::size_t begin = next.fetch_add(kChunk, std::memory_order_relaxed);
+                if (begin >= n)
+                    return;
+                if (worker == 0 && progress.report && taken % 16 == 0)
+                    progress(from + (to - from) * static_cast<double>(begin) / static_cast<double>(n), stage);
+                const std::size_t end = std::min(n, begin + kChunk);
+                for (std::size_t i = begin; i < end; ++i)
+                    fn(i, worker);
             }
         });
         if (stop.load() || progress.cancelled())

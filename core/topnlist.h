@@ -19,6 +19,7 @@ public:
     void clear() { m_heap.clear(); }
     std::size_t size() const { return m_heap.size(); }
     bool full() const { return m_heap.size() >= m_n; }
+    std::size_t capacity() const { return m_n; }
 
     void offer(std::uint32_t item, float score)
     {

@@ -22,7 +22,8 @@ const CommandSpec& spec()
         "WORKSPACE --model popular|mean|bias|itemknn|als --name NAME [options]",
         "Fits a reference model on the workspace's train rows and stores it as a run: a score\n"
         "for every withheld pair and a top-N list per user without seen items. The run is then\n"
-        "evaluated (k = 10) and its headline numbers printed. Models and their sources:\n"
+        "evaluated with the default settings (k = 10), the evaluation stored, and its headline\n"
+        "numbers printed. Models and their sources:\n"
         "docs/models.md. Fitting is seeded: the same settings give the same run.",
         1,
         {

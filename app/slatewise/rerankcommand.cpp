@@ -23,7 +23,7 @@ const CommandSpec& spec()
         "parent, method and settings and keeps the parent's scores. mmr trades relevance for\n"
         "genre diversity (λ = 1 keeps the order); series-order puts first parts before sequels;\n"
         "burst-damp moves items of a recent-binge genre down toward the user's long-term taste.\n"
-        "Both runs are then evaluated (k = 10) and printed side by side. See docs/models.md.",
+        "Both runs are then evaluated (k = 10; stored) and printed side by side. See docs/models.md.",
         1,
         {
             {"run", "NAME", "the parent run"},

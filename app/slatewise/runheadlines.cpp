@@ -4,7 +4,7 @@
 #include "app/slatewise/args.h"
 #include "app/slatewise/reporting.h"
 
-#include "core/evaluator.h"
+#include "core/evaluationservice.h"
 #include "core/workspace.h"
 
 #include <cstdio>
@@ -26,27 +26,18 @@ void printHeadline(const core::RunEvaluation& e)
 }
 } // namespace
 
-/// Evaluates the named runs (k = 10, no bootstrap) and prints one headline line each.
-/// Shared with `rerank`, which shows the derived run beside its parent.
+/// Evaluates the named runs with the default settings, stores the results (so `evaluate`,
+/// `compare` and the workbench find them) and prints one headline line each. Shared with
+/// `rerank`, which shows the derived run beside its parent.
 int printRunHeadlines(core::Workspace& ws, const std::vector<std::string>& names, const core::Progress& progress)
 {
-    auto data = ws.loadDataset();
-    if (!data)
-        return printErrors("evaluate", data.errors());
-    const core::DatasetStats stats = core::computeStats(data.value());
-    core::EvalSettings settings;
-    settings.bootstrap = 0;
-    std::printf("evaluation (k = %d, relevant at %.1f):\n", settings.k, settings.relevantAt);
-    for (const auto& name : names) {
-        auto run = ws.loadRun(name, data.value());
-        if (!run)
-            return printErrors("evaluate", run.errors());
-        auto e = core::evaluateRun(data.value(), stats, run.value(), settings, progress);
-        if (!e)
-            return printErrors("evaluate", e.errors());
-        e->runName = name;
-        printHeadline(e.value());
-    }
+    const core::EvalSettings settings;
+    auto result = core::evaluateRuns(ws, names, settings, progress);
+    if (!result)
+        return printErrors("evaluate", result.errors());
+    std::printf("evaluation (k = %d, relevant at %.1f; stored in the workspace):\n", settings.k, settings.relevantAt);
+    for (const auto& e : result->evaluations)
+        printHeadline(e);
     return ExitOk;
 }
 

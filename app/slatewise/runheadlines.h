@@ -12,8 +12,9 @@ class Workspace;
 
 namespace slatewise::cli {
 
-/// Evaluates the named runs (k = 10, no bootstrap) and prints one headline line each, so a
-/// fitted or re-ranked run can be read beside its parent. Returns the exit code.
+/// Evaluates the named runs with the default settings, stores the evaluations and prints one
+/// headline line each, so a fitted or re-ranked run can be read beside its parent.
+/// Returns the exit code.
 int printRunHeadlines(core::Workspace& ws, const std::vector<std::string>& names, const core::Progress& progress);
 
 } // namespace slatewise::cli

@@ -205,6 +205,8 @@ def main():
 
     run(a.cli, "rerank", ws, "--run", "als", "--method", "mmr", "--lambda", "1", "--name", "mmr1", "--quiet")
     check(lists("mmr1") == lists("als"), "mmr with lambda 1 returns the parent's lists")
+    evaluated = {n for (n,) in db.execute("SELECT r.name FROM evaluations e JOIN runs r ON r.run_id = e.run_id")}
+    check({"mmr1", "als"} <= evaluated, f"rerank stores the evaluations of the derived run and its parent {evaluated}")
     run(a.cli, "rerank", ws, "--run", "als", "--method", "mmr", "--lambda", "0.3", "--name", "mmr03", "--quiet")
     base = np.mean([ild(l) for l in lists("als").values()])
     div = np.mean([ild(l) for l in lists("mmr03").values()])
