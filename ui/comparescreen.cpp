@@ -84,6 +84,9 @@ CompareScreen::CompareScreen(WorkspaceDocument* document, QWidget* parent)
     bar->addWidget(m_go);
     bar->addStretch(1);
 
+    m_table->setObjectName(QStringLiteral("comparison"));
+    m_segmentView->setObjectName(QStringLiteral("segments"));
+    m_worseView->setObjectName(QStringLiteral("who-got-worse"));
     m_worseView->setToolTip(tr("Double-click or press Enter to open the user in the inspector under the candidate run."));
     connect(m_worseView, &QTableView::activated, this, [this](const QModelIndex& index) {
         if (!m_comparison)

@@ -94,6 +94,43 @@ FitDialog::FitDialog(const QString& workspacePath, QWidget* parent)
 
 FitDialog::~FitDialog() = default;
 
+void FitDialog::setModel(const QString& key)
+{
+    const int index = m_model->findData(key);
+    if (index >= 0)
+        m_model->setCurrentIndex(index);
+}
+
+void FitDialog::setRunName(const QString& name)
+{
+    m_name->setText(name);
+}
+
+void FitDialog::setRank(int rank)
+{
+    m_rank->setValue(rank);
+}
+
+void FitDialog::setLambda(double lambda)
+{
+    m_lambda->setValue(lambda);
+}
+
+void FitDialog::setIterations(int iterations)
+{
+    m_iterations->setValue(iterations);
+}
+
+QString FitDialog::runName() const
+{
+    return m_name->text().trimmed();
+}
+
+QString FitDialog::statusText() const
+{
+    return m_status->text();
+}
+
 void FitDialog::updateEnabled()
 {
     const QString kind = m_model->currentData().toString();

@@ -25,6 +25,16 @@ public:
     FitDialog(const QString& workspacePath, QWidget* parent = nullptr);
     ~FitDialog() override;
 
+    /// Chooses the model by its command-line key ("bias", "als", ...); the run name follows.
+    void setModel(const QString& key);
+    void setRunName(const QString& name);
+    void setRank(int rank);
+    void setLambda(double lambda);
+    void setIterations(int iterations);
+    QString runName() const;
+    QString statusText() const;
+    FitLossChart* chart() const { return m_chart; }
+
     bool startFit();
     void cancel();
     BackgroundTask* task() const { return m_task; }

@@ -24,6 +24,7 @@ public:
     void setData(std::vector<Iteration> iterations, const QString& modelLabel);
     void appendIteration(const Iteration& it);
     void clear();
+    const std::vector<Iteration>& iterations() const { return m_iterations; }
 
 protected:
     void rebuild(const ChartPalette& palette) override;

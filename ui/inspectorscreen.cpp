@@ -67,6 +67,9 @@ InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
     m_heading->setFont(headingFont);
     m_heading->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_summary->setWordWrap(true);
+    m_listView->setObjectName(QStringLiteral("user-list"));
+    m_withheldView->setObjectName(QStringLiteral("user-withheld"));
+    m_metricsView->setObjectName(QStringLiteral("user-metrics"));
     m_previous->setToolTip(tr("The previous user in the Users list's order (Alt+P)."));
     m_next->setToolTip(tr("The next user in the Users list's order (Alt+N)."));
     m_run->setToolTip(tr("See the same user under another run."));

@@ -1,19 +1,29 @@
 // SPDX-License-Identifier: MIT
 #include "ui/mainwindow.h"
 
+#include "core/comparisonresult.h"
 #include "core/workspace.h"
 #include "ui/backgroundtask.h"
 #include "ui/comparescreen.h"
+#include "ui/exportcontextmenu.h"
+#include "ui/exportsettings.h"
 #include "ui/fitdialog.h"
+#include "ui/format.h"
 #include "ui/importdialog.h"
 #include "ui/inspectorscreen.h"
+#include "ui/meetingpack.h"
 #include "ui/overviewscreen.h"
+#include "ui/pngsizedialog.h"
+#include "ui/rerankdialog.h"
 #include "ui/usersscreen.h"
 #include "ui/workspacedocument.h"
+#include "ui/workspacereport.h"
 
 #include <QAction>
 #include <QApplication>
 #include <QCloseEvent>
+#include <QDate>
+#include <QDir>
 #include <QDragEnterEvent>
 #include <QDropEvent>
 #include <QFileDialog>
@@ -28,6 +38,9 @@
 #include <QSettings>
 #include <QStatusBar>
 #include <QTabWidget>
+#include <QTableView>
+
+#include <optional>
 
 namespace slatewise::ui {
 
@@ -105,6 +118,10 @@ MainWindow::MainWindow(QWidget* parent)
     connect(m_inspector, &InspectorScreen::userStepped, this, [this](const QString&, core::UserIndex user) { m_users->selectUser(user); });
     connect(m_compare, &CompareScreen::openUser, this, [this](const QString& run, core::UserIndex user) { openUser(run, user, true); });
 
+    // File names for "Save tables" and the right-click menus.
+    m_users->table()->setObjectName(QStringLiteral("users"));
+    ExportContextMenu::attachAll(m_tabs);
+
     buildMenus();
     updateTitle();
     resize(1400, 900);
@@ -125,6 +142,8 @@ void MainWindow::buildMenus()
     m_addRun->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_A));
     m_fit = file->addAction(tr("&Fit a reference model…"), this, &MainWindow::fitDialog);
     m_fit->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_F));
+    m_rerank = file->addAction(tr("Re-ran&k a run (what-if)…"), this, &MainWindow::rerankDialog);
+    m_rerank->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_R));
     file->addSeparator();
     QAction* reload = file->addAction(tr("Re&load"), this, [this] { m_document->reload(); });
     reload->setShortcut(QKeySequence::Refresh);
@@ -141,6 +160,22 @@ void MainWindow::buildMenus()
         a->setShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)));
     }
 
+    m_export = menuBar()->addMenu(tr("&Export"));
+    m_export->setToolTipsVisible(true);
+    QAction* pack = m_export->addAction(tr("Write the &meeting pack (PDF)"), this, [this] { writeMeetingPack(defaultMeetingPackPath()); });
+    pack->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_M));
+    pack->setToolTip(tr("One PDF for the meeting: run summary, charts, comparison, worst-served users and three case "
+                        "studies. Written to the last export folder."));
+    m_export->addAction(tr("Meeting pack &as…"), this, &MainWindow::meetingPackAs);
+    m_export->addSeparator();
+    m_export->addAction(tr("Save this screen's charts as &PNG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Png); });
+    m_export->addAction(tr("Save this screen's charts as &SVG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Svg); });
+    m_export->addAction(tr("Save this screen's charts as P&DF…"), this, [this] { exportChartsDialog(ScreenExport::Format::Pdf); });
+    m_export->addAction(tr("Save this screen's &tables as CSV…"), this, &MainWindow::exportTablesDialog);
+    m_export->addSeparator();
+    QAction* hint = m_export->addAction(tr("Right-click a chart or table to save just that one"));
+    hint->setEnabled(false);
+
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     help->addAction(tr("&About Slatewise"), this, [this] {
         QMessageBox::about(this, tr("About Slatewise"),
@@ -154,6 +189,155 @@ void MainWindow::buildMenus()
 void MainWindow::showScreen(Screen screen)
 {
     m_tabs->setCurrentIndex(static_cast<int>(screen));
+}
+
+MainWindow::Screen MainWindow::currentScreen() const
+{
+    return static_cast<Screen>(std::max(0, m_tabs->currentIndex()));
+}
+
+QWidget* MainWindow::screenWidget(Screen screen) const
+{
+    return m_tabs->widget(static_cast<int>(screen));
+}
+
+core::Result<QStringList> MainWindow::saveScreenCharts(const QString& folder, ScreenExport::Format format,
+                                                       const ExportSettings::Png& png)
+{
+    return ScreenExport::saveCharts(screenWidget(currentScreen()), folder, format, png);
+}
+
+core::Result<QStringList> MainWindow::saveScreenTables(const QString& folder)
+{
+    return ScreenExport::saveTables(screenWidget(currentScreen()), folder);
+}
+
+void MainWindow::exportChartsDialog(ScreenExport::Format format)
+{
+    ExportSettings::Png png = ExportSettings::png();
+    if (format == ScreenExport::Format::Png) {
+        PngSizeDialog size(png, this);
+        if (size.exec() != QDialog::Accepted)
+            return;
+        png = size.options();
+        ExportSettings::setPng(png);
+    }
+    const QString folder = QFileDialog::getExistingDirectory(this, tr("Folder for this screen's charts"), ExportSettings::lastFolder());
+    if (folder.isEmpty())
+        return;
+    ExportSettings::rememberPath(folder);
+    const auto written = saveScreenCharts(folder, format, png);
+    if (!written) {
+        QMessageBox::warning(this, tr("Cannot save the charts"), toQ(written.error().toString()));
+        return;
+    }
+    m_statusText->setText(tr("Saved %n chart(s) to %1", nullptr, static_cast<int>(written->size())).arg(folder));
+}
+
+void MainWindow::exportTablesDialog()
+{
+    const QString folder = QFileDialog::getExistingDirectory(this, tr("Folder for this screen's tables"), ExportSettings::lastFolder());
+    if (folder.isEmpty())
+        return;
+    ExportSettings::rememberPath(folder);
+    const auto written = saveScreenTables(folder);
+    if (!written) {
+        QMessageBox::warning(this, tr("Cannot save the tables"), toQ(written.error().toString()));
+        return;
+    }
+    m_statusText->setText(tr("Saved %n table(s) as CSV to %1", nullptr, static_cast<int>(written->size())).arg(folder));
+}
+
+QString MainWindow::defaultMeetingPackPath() const
+{
+    const QDir folder(ExportSettings::lastFolder());
+    const QString name = m_document->isOpen() ? QFileInfo(m_document->path()).completeBaseName() : QStringLiteral("slatewise");
+    const QString stem = QStringLiteral("%1-meeting-pack-%2").arg(name, QDate::currentDate().toString(Qt::ISODate));
+    QString path = folder.filePath(stem + QStringLiteral(".pdf"));
+    for (int n = 2; QFileInfo::exists(path); ++n)
+        path = folder.filePath(QStringLiteral("%1-%2.pdf").arg(stem).arg(n));
+    return path;
+}
+
+void MainWindow::meetingPackAs()
+{
+    QString path = QFileDialog::getSaveFileName(this, tr("Save the meeting pack"), defaultMeetingPackPath(), tr("PDF document (*.pdf)"));
+    if (path.isEmpty())
+        return;
+    if (!path.endsWith(QStringLiteral(".pdf"), Qt::CaseInsensitive))
+        path += QStringLiteral(".pdf");
+    writeMeetingPack(path);
+}
+
+bool MainWindow::writeMeetingPack(const QString& path)
+{
+    if (!m_document->isOpen() || m_document->task()->isRunning()) {
+        m_statusText->setText(m_document->isOpen() ? tr("Wait for the running job to finish, then write the meeting pack.")
+                                                   : tr("Open a workspace first."));
+        return false;
+    }
+    // The comparison shown on the Compare screen, else the first two runs.
+    QString base, candidate;
+    if (const auto shown = m_compare->comparison()) {
+        base = toQ(shown->base);
+        candidate = toQ(shown->candidate);
+    } else if (m_document->runNames().size() >= 2) {
+        base = m_document->runNames().at(0);
+        candidate = m_document->runNames().at(1);
+    }
+    ExportSettings::rememberPath(path);
+
+    struct Outcome {
+        std::optional<MeetingPackContent> content;
+        QString error;
+        bool cancelled = false;
+    };
+    auto outcome = std::make_shared<Outcome>();
+    const std::string workspace = m_document->path().toStdString();
+    const core::EvalSettings settings = m_document->settings();
+    const std::string baseName = base.toStdString(), candidateName = candidate.toStdString();
+    const bool started = m_document->task()->start(
+        tr("Writing the meeting pack"),
+        [outcome, workspace, settings, baseName, candidateName](const core::Progress& progress) {
+            auto report = WorkspaceReport::load(workspace, {}, settings, progress);
+            if (!report) {
+                outcome->cancelled = report.error().kind == core::ErrorKind::Cancelled;
+                outcome->error = toQ(report.error().toString());
+                return;
+            }
+            if (progress.cancelled()) {
+                outcome->cancelled = true;
+                return;
+            }
+            const auto b = baseName.empty() ? std::nullopt : report->runIndex(baseName);
+            const auto c = candidateName.empty() ? std::nullopt : report->runIndex(candidateName);
+            outcome->content = report->packContent(b && c ? b : std::nullopt, b && c ? c : std::nullopt);
+        },
+        [this, outcome, path] {
+            QString error = outcome->error;
+            if (outcome->cancelled) {
+                error = tr("Cancelled.");
+                m_statusText->setText(tr("Meeting pack cancelled; nothing was written."));
+            } else if (error.isEmpty() && outcome->content) {
+                // Drawing the charts needs widgets, so the PDF itself is written here, on the GUI thread.
+                const auto status = MeetingPack::write(*outcome->content, path);
+                if (!status)
+                    error = toQ(status.error().toString());
+            } else if (error.isEmpty()) {
+                error = tr("Nothing to write.");
+            }
+            if (!error.isEmpty() && !outcome->cancelled) {
+                m_statusText->setText(tr("Could not write the meeting pack: %1").arg(error.section(QLatin1Char('\n'), 0, 0)));
+                if (isVisible())
+                    QMessageBox::warning(this, tr("Cannot write the meeting pack"), error);
+            } else if (error.isEmpty()) {
+                m_statusText->setText(tr("Wrote the meeting pack to %1").arg(QDir::toNativeSeparators(path)));
+            }
+            emit meetingPackFinished(path, error);
+        });
+    if (!started)
+        m_statusText->setText(tr("Wait for the running job to finish, then write the meeting pack."));
+    return started;
 }
 
 bool MainWindow::openWorkspace(const QString& path)
@@ -211,11 +395,25 @@ void MainWindow::fitDialog()
     dialog->open();
 }
 
+void MainWindow::rerankDialog()
+{
+    if (!m_document->isOpen())
+        return;
+    auto* dialog = new RerankDialog(m_document->path(), m_document->runNames(), this);
+    dialog->setAttribute(Qt::WA_DeleteOnClose);
+    connect(dialog, &RerankDialog::reranked, this, [this] { m_document->reload(); });
+    dialog->open();
+}
+
 void MainWindow::updateTitle()
 {
     const bool open = m_document->isOpen();
     m_addRun->setEnabled(open);
     m_fit->setEnabled(open);
+    m_rerank->setEnabled(open);
+    for (QAction* action : m_export->actions())
+        if (!action->isSeparator() && !action->text().startsWith(tr("Right-click")))
+            action->setEnabled(open);
     m_close->setEnabled(open);
     if (!open) {
         setWindowTitle(tr("Slatewise"));

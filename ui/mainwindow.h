@@ -1,7 +1,9 @@
 // SPDX-License-Identifier: MIT
 #pragma once
 
+#include "core/error.h"
 #include "core/ids.h"
+#include "ui/screenexport.h"
 
 #include <QMainWindow>
 
@@ -21,9 +23,11 @@ class UsersScreen;
 class WorkspaceDocument;
 
 /// The workbench window: four screens (Runs overview, Users, User inspector, Compare runs)
-/// over one WorkspaceDocument, a status bar with progress, rows/s and Cancel, and the File
-/// menu (open, recent, new from files, add run, fit model). Window layout, the last
-/// workspace and the evaluation settings are remembered with QSettings.
+/// over one WorkspaceDocument, a status bar with progress, rows/s and Cancel, the File
+/// menu (open, recent, new from files, add run, fit model, re-rank a run) and the Export
+/// menu (the current screen's charts and tables, the meeting pack). Every chart and table
+/// also has its own right-click export menu. Window layout, the last workspace, the
+/// evaluation settings and the export choices are remembered with QSettings.
 class MainWindow : public QMainWindow {
     Q_OBJECT
 public:
@@ -38,6 +42,22 @@ public:
     InspectorScreen* inspector() const { return m_inspector; }
     CompareScreen* compare() const { return m_compare; }
     void showScreen(Screen screen);
+    Screen currentScreen() const;
+    QWidget* screenWidget(Screen screen) const;
+
+    /// Saves every chart of the current screen into `folder` (the Export menu's actions
+    /// collect the folder and PNG size, then call these). Returns the files written.
+    core::Result<QStringList> saveScreenCharts(const QString& folder, ScreenExport::Format format,
+                                               const ExportSettings::Png& png = {});
+    core::Result<QStringList> saveScreenTables(const QString& folder);
+
+    /// A fresh file name for the meeting pack in the last export folder
+    /// ("<workspace>-meeting-pack-<date>.pdf", numbered when taken).
+    QString defaultMeetingPackPath() const;
+    /// Starts writing the meeting pack to `path` in the background (progress and Cancel in
+    /// the status bar); false when no workspace is open or another job runs. The pack
+    /// compares the Compare screen's runs when a comparison is shown, else the first two.
+    bool writeMeetingPack(const QString& path);
 
     bool openWorkspace(const QString& path);
     /// Opens `user` under `runName` in the inspector and shows it.
@@ -45,6 +65,10 @@ public:
 
     /// Restores geometry and settings; `reopenLast` also opens the last workspace.
     void restoreSettings(bool reopenLast);
+
+signals:
+    /// The meeting pack job ended: `error` is empty on success, "Cancelled." when cancelled.
+    void meetingPackFinished(const QString& path, const QString& error);
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -59,6 +83,10 @@ private:
     void newFromFiles();
     void addRunDialog();
     void fitDialog();
+    void rerankDialog();
+    void exportChartsDialog(ScreenExport::Format format);
+    void exportTablesDialog();
+    void meetingPackAs();
     void updateTitle();
     void saveSettings();
 
@@ -71,6 +99,8 @@ private:
     QMenu* m_recent = nullptr;
     QAction* m_addRun = nullptr;
     QAction* m_fit = nullptr;
+    QAction* m_rerank = nullptr;
+    QMenu* m_export = nullptr;
     QAction* m_close = nullptr;
     QLabel* m_statusText;
     QProgressBar* m_progress;

@@ -53,6 +53,7 @@ OverviewScreen::OverviewScreen(WorkspaceDocument* document, QWidget* parent)
     m_caption->setWordWrap(true);
 
     m_table->setModel(m_model);
+    m_table->setObjectName(QStringLiteral("run-metrics"));
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_table->setSelectionMode(QAbstractItemView::SingleSelection);
     m_table->verticalHeader()->hide();
