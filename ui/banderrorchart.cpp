@@ -42,8 +42,8 @@ void BandErrorChart::rebuild(const ChartPalette& palette)
     }
     setEmpty(false);
 
-    QString subtitle = tr("Mean error = score − withheld rating: above 0 the run over-predicts, below 0 it "
-                          "under-predicts. n = scored withheld pairs.");
+    QString subtitle = tr("In rating points. Mean error = score − withheld rating: above 0 the run over-predicts, "
+                          "below 0 it under-predicts. n = scored withheld pairs.");
     if (!g.skippedRuns.empty()) {
         QStringList names;
         for (const auto& s : g.skippedRuns)
@@ -74,8 +74,9 @@ void BandErrorChart::rebuild(const ChartPalette& palette)
     styleAxis(top->axis(QCPAxis::atBottom), palette, {});
     top->axis(QCPAxis::atBottom)->setTickLabels(false);
     styleAxis(bottom->axis(QCPAxis::atBottom), palette, tr("withheld rating (stars)"));
-    styleAxis(top->axis(QCPAxis::atLeft), palette, tr("RMSE (rating points)"));
-    styleAxis(bottom->axis(QCPAxis::atLeft), palette, tr("mean error (points)"));
+    // Short labels: each must fit beside its own, often low, plot (units are in the subtitle).
+    styleAxis(top->axis(QCPAxis::atLeft), palette, tr("RMSE"));
+    styleAxis(bottom->axis(QCPAxis::atLeft), palette, tr("mean error"));
 
     double rmseMax = 0.0, meMin = 0.0, meMax = 0.0;
     const int legendColumns = std::min<int>(4, static_cast<int>(g.runs.size()));
@@ -115,7 +116,7 @@ void BandErrorChart::rebuild(const ChartPalette& palette)
     setNiceRange(top->axis(QCPAxis::atLeft), 0.0, rmseMax > 0 ? rmseMax * 1.05 : 1.0, 4);
     // Symmetric around zero so over- and under-prediction read at the same scale.
     const double extent = std::max({std::abs(meMin), std::abs(meMax), 0.1}) * 1.05;
-    setNiceRange(bottom->axis(QCPAxis::atLeft), -extent, extent, 4);
+    setNiceRange(bottom->axis(QCPAxis::atLeft), -extent, extent, 2); // few ticks: this plot is low
     bottom->axis(QCPAxis::atLeft)->grid()->setZeroLinePen(QPen(palette.text(), 1.2));
 
     // Say which side is which right on the lower plot.
@@ -135,7 +136,7 @@ void BandErrorChart::rebuild(const ChartPalette& palette)
     label(0.92, tr("▼ under-predicted"));
 
     plot()->plotLayout()->setRowStretchFactor(row - 2, 3);
-    plot()->plotLayout()->setRowStretchFactor(row - 1, 2);
+    plot()->plotLayout()->setRowStretchFactor(row - 1, 2.6); // this row also holds the two-line x labels
 }
 
 } // namespace slatewise::ui

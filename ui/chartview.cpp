@@ -63,9 +63,24 @@ void ChartView::refresh()
     m_plot->plotLayout()->clear(); // deletes axis rects, their axes and any legend
     m_plot->plotLayout()->simplify();
     m_plot->setBackground(QBrush(palette.background()));
+    m_legend = nullptr; // deleted with the layout above
     rebuild(palette);
     if (m_empty)
         showEmptyMessage(palette);
+    if (m_legend) {
+        // Descenders (g, p) of legend text were clipped at the item's lower edge: QCustomPlot
+        // sizes the item by the text's line height but clips it to that exact box.
+        for (int i = 0; i < m_legend->itemCount(); ++i)
+            if (auto* item = m_legend->item(i))
+                item->setMargins(QMargins(0, 1, 0, 4));
+        // On a narrow chart long entries ran past the right edge: fewer columns until they fit.
+        if (isVisible() && m_plot->width() >= 100) {
+            while (m_legend->wrap() > 1 && m_legend->minimumOuterSizeHint().width() > m_plot->width()) {
+                m_legend->setWrap(m_legend->wrap() - 1);
+                m_legend->setFillOrder(m_legend->fillOrder(), true);
+            }
+        }
+    }
     m_plot->replot(QCustomPlot::rpQueuedReplot);
 }
 
@@ -188,6 +203,7 @@ QCPLegend* ChartView::addLegendRow(const ChartPalette& palette, int row, int col
     legend->setMargins(QMargins(8, 4, 8, 16)); // room below the text, which was clipped at the bottom edge
     m_plot->plotLayout()->setRowStretchFactor(row, 0.001);
     m_plot->legend = legend;
+    m_legend = legend;
     return legend;
 }
 
@@ -196,6 +212,7 @@ void ChartView::showEmptyMessage(const ChartPalette& palette)
     auto* layout = m_plot->plotLayout();
     layout->clear();
     layout->simplify();
+    m_legend = nullptr;
     m_plot->clearPlottables();
     m_plot->clearItems();
     const int row = addTitle(palette);

@@ -71,6 +71,7 @@ private:
     QString wrapToWidth(const QString& text, const QFont& font) const;
 
     QCustomPlot* m_plot = nullptr;
+    QCPLegend* m_legend = nullptr; ///< the legend row of the current layout, if any
     QString m_title;
     QString m_fileStem;
     QString m_emptyText;

@@ -100,9 +100,12 @@ CompareScreen::CompareScreen(WorkspaceDocument* document, QWidget* parent)
     upper->addWidget(m_chart);
     upper->setStretchFactor(0, 3);
     upper->setStretchFactor(1, 2);
+    // The table's p-values and verdicts are the point; the chart's size hint would take most.
+    upper->setSizes({900, 600});
     auto* lower = new QSplitter(Qt::Horizontal, this);
     lower->addWidget(titled(tr("By segment"), m_segmentView, this));
     lower->addWidget(titled(tr("Who got worse"), m_worseView, this, m_worseCaption));
+    lower->setSizes({750, 750});
     auto* split = new QSplitter(Qt::Vertical, this);
     split->addWidget(upper);
     split->addWidget(lower);

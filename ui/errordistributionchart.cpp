@@ -71,7 +71,8 @@ void ErrorDistributionChart::rebuild(const ChartPalette& palette)
     QCPAxis* y = rect->axis(QCPAxis::atLeft);
     styleAxis(x, palette, tr("error = score − withheld rating (rating points)"));
     styleAxis(y, palette, tr("share of the run's scored pairs (%)"));
-    addLegendRow(palette, row, std::min<int>(3, static_cast<int>(drawn.size())));
+    // Two columns: three entries with counts in one row ran past the chart's edge.
+    addLegendRow(palette, row, std::min<int>(2, static_cast<int>(drawn.size())));
 
     double yMax = 0.0;
     for (std::size_t r = 0; r < drawn.size(); ++r) {
@@ -98,7 +99,7 @@ void ErrorDistributionChart::rebuild(const ChartPalette& palette)
         graph->setData(keys, values, true);
         const double mean =
             std::accumulate(drawn[r]->errors.begin(), drawn[r]->errors.end(), 0.0) / static_cast<double>(drawn[r]->errors.size());
-        graph->setName(tr("%1 (n = %2, mean error %3)")
+        graph->setName(tr("%1: mean error %3, n = %2")
                            .arg(drawn[r]->runName)
                            .arg(QLocale().toString(static_cast<qlonglong>(drawn[r]->errors.size())))
                            .arg(QLocale().toString(mean, 'f', 2)));

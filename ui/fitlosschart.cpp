@@ -75,7 +75,14 @@ void FitLossChart::rebuild(const ChartPalette& palette)
     add(train, 0, Qt::SolidLine, tr("train RMSE"));
     if (std::any_of(held.begin(), held.end(), [](double v) { return std::isfinite(v); }))
         add(held, 1, Qt::DashLine, tr("withheld RMSE"));
-    setNiceRange(x, 1, std::max(2, m_iterations.back().iteration), 6);
+    // Iterations are whole numbers; half a step of room keeps the end points' markers whole.
+    const int last = std::max(2, m_iterations.back().iteration);
+    const int step = std::max(1, (last + 9) / 10);
+    QSharedPointer<QCPAxisTickerText> ticker(new QCPAxisTickerText);
+    for (int i = 1; i <= last; i += step)
+        ticker->addTick(i, QString::number(i));
+    x->setTicker(ticker);
+    x->setRange(0.5, last + 0.5);
     if (!std::isfinite(lo))
         lo = 0, hi = 1;
     const double pad = std::max(0.02, (hi - lo) * 0.1);

@@ -67,8 +67,8 @@ void GenreTimelineChart::rebuild(const ChartPalette& palette)
     addLegendRow(palette, row, std::min<int>(4, static_cast<int>(t.genres.size())));
     QCPAxis* x = rect->axis(QCPAxis::atBottom);
     QCPAxis* y = rect->axis(QCPAxis::atLeft);
-    styleAxis(x, palette, t.hasTimestamps ? tr("titles watched, oldest → newest (numbers and dates per bar)")
-                                          : tr("titles watched, oldest → newest (in file order; no dates)"));
+    styleAxis(x, palette, t.hasTimestamps ? tr("titles watched, oldest → newest")
+                                          : tr("titles watched, in file order (no dates)"));
     styleAxis(y, palette, tr("share of the bar's titles (%)"));
 
     // Older buckets at 0..n-2; the recent window after a gap so it reads as separate.
@@ -82,16 +82,15 @@ void GenreTimelineChart::rebuild(const ChartPalette& palette)
         QString label = bucket.recent ? tr("last %1").arg(bucket.count)
                                       : tr("%1–%2").arg(bucket.firstIndex + 1).arg(bucket.firstIndex + bucket.count);
         if (t.hasTimestamps && bucket.firstTime != core::kNoTimestamp) {
+            // Only the month a bar starts in: start and end ran into the neighbours' labels,
+            // and the next bar's label says where this one ends.
             const auto from = QDateTime::fromSecsSinceEpoch(bucket.firstTime, Qt::UTC).date();
-            const auto to = QDateTime::fromSecsSinceEpoch(bucket.lastTime, Qt::UTC).date();
-            const QString fmt = QStringLiteral("MMM yy");
-            label += QLatin1Char('\n') + from.toString(fmt);
-            if (to.toString(fmt) != from.toString(fmt))
-                label += QStringLiteral("–\n") + to.toString(fmt);
+            label += QLatin1Char('\n') + from.toString(QStringLiteral("MMM yy"));
         }
         ticker->addTick(key, label);
     }
     x->setTicker(ticker);
+    x->setTickLabelFont(chartFont(0.85));
     x->grid()->setVisible(false);
     x->setRange(-0.6, keys.back() + 0.6);
     setNiceRange(y, 0, 100, 5);

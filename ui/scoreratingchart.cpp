@@ -11,6 +11,8 @@
 #include <cmath>
 #include <map>
 
+#include <QLocale>
+
 #include <qcustomplot.h>
 
 namespace slatewise::ui {
@@ -109,16 +111,26 @@ void ScoreRatingChart::rebuild(const ChartPalette& palette)
     std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
         return std::abs(m_points[a].score - m_points[a].rating) > std::abs(m_points[b].score - m_points[b].rating);
     });
+    std::vector<std::size_t> named;
     for (std::size_t k = 0; k < std::min<std::size_t>(3, order.size()); ++k) {
         const auto i = order[k];
         if (std::abs(m_points[i].score - m_points[i].rating) < 0.5)
             break;
+        // Two names on nearly the same spot would print over each other.
+        const bool crowded = std::any_of(named.begin(), named.end(), [&](std::size_t j) {
+            return std::abs(m_points[j].rating - m_points[i].rating) < 0.6 && std::abs(m_points[j].score - m_points[i].score) < 0.4;
+        });
+        if (crowded)
+            continue;
+        named.push_back(i);
         auto* text = new QCPItemText(plot());
         text->setClipAxisRect(rect);
         text->position->setAxes(x, y);
         text->position->setCoords(xs[static_cast<int>(i)], ys[static_cast<int>(i)]);
         const bool over = m_points[i].score > m_points[i].rating;
-        text->setPositionAlignment(Qt::AlignHCenter | (over ? Qt::AlignBottom : Qt::AlignTop));
+        // Near the right edge the name goes to the left of its point, so it is not cut off.
+        const bool rightHalf = m_points[i].rating > (m_min + m_max) / 2.0;
+        text->setPositionAlignment((rightHalf ? Qt::AlignRight : Qt::AlignLeft) | (over ? Qt::AlignBottom : Qt::AlignTop));
         text->setPadding(QMargins(2, 6, 2, 6));
         QString title = m_points[i].title;
         if (title.size() > 28)
@@ -127,8 +139,32 @@ void ScoreRatingChart::rebuild(const ChartPalette& palette)
         text->setFont(chartFont(0.8));
         text->setColor(palette.text());
     }
-    setNiceRange(x, std::floor(lo) - 0.5, std::ceil(hi) + 0.5, 6);
-    setNiceRange(y, std::floor(lo) - 0.5, std::ceil(hi) + 0.5, 6);
+    // The axes follow the workspace's rating scale with a small margin (a 1–5 scale reads
+    // 0.75–5.25, not 0–6); the score axis widens only for scores outside the scale.
+    const bool scaleKnown = std::isfinite(m_min) && std::isfinite(m_max) && m_max > m_min;
+    const double scaleLo = scaleKnown ? m_min : std::floor(lo);
+    const double scaleHi = scaleKnown ? m_max : std::ceil(hi);
+    const double margin = std::max(0.25, 0.06 * (scaleHi - scaleLo));
+    double scoreLo = scaleLo, scoreHi = scaleHi;
+    for (const auto& p : m_points) {
+        scoreLo = std::min(scoreLo, p.score);
+        scoreHi = std::max(scoreHi, p.score);
+    }
+    setScaleRange(x, scaleLo - margin, scaleHi + margin, scaleLo);
+    setScaleRange(y, scoreLo - margin, scoreHi + margin, scaleLo);
+}
+
+void ScoreRatingChart::setScaleRange(QCPAxis* axis, double low, double high, double origin)
+{
+    // Ticks on the scale's whole steps (1, 2, … 5) while they stay few; else nice ticks.
+    const double step = std::max(1.0, std::ceil((high - low) / 10.0));
+    QSharedPointer<QCPAxisTickerText> ticker(new QCPAxisTickerText);
+    const double first = origin + std::ceil((low - origin) / step) * step;
+    const int decimals = std::abs(origin - std::round(origin)) > 1e-9 ? 1 : 0;
+    for (double t = first; t <= high + 1e-9; t += step)
+        ticker->addTick(t, QLocale().toString(t, 'f', decimals));
+    axis->setTicker(ticker);
+    axis->setRange(low, high);
 }
 
 } // namespace slatewise::ui

@@ -39,6 +39,9 @@ protected:
     void rebuild(const ChartPalette& palette) override;
 
 private:
+    /// Range [low, high] with ticks every whole scale step counted from `origin`.
+    static void setScaleRange(QCPAxis* axis, double low, double high, double origin);
+
     std::vector<Point> m_points;
     QString m_user, m_run;
     double m_min = 1.0, m_max = 5.0;

@@ -5,6 +5,8 @@
 #include "ui/chartpalette.h"
 #include "ui/format.h"
 
+#include <QFontMetrics>
+
 #include <algorithm>
 
 #include <qcustomplot.h>
@@ -15,6 +17,7 @@ WarningPrevalenceChart::WarningPrevalenceChart(QWidget* parent) : ChartView(pare
 {
     setTitle(tr("Warning prevalence: share of users carrying each warning, per run"));
     setFileStem(QStringLiteral("warning-prevalence"));
+    connect(plot(), &QCustomPlot::afterLayout, this, &WarningPrevalenceChart::fitLabels);
     refresh();
 }
 
@@ -33,11 +36,13 @@ void WarningPrevalenceChart::rebuild(const ChartPalette& palette)
         return;
     }
     setEmpty(false);
+    m_labels.clear();
     const auto& warnings = core::allWarnings();
     const int rows = static_cast<int>(warnings.size());
     int row = addTitle(palette, tr("Users evaluated = users with at least one withheld item. One user can carry "
                                    "several warnings."));
     QCPAxisRect* rect = addAxisRect(palette, row++);
+    m_rect = rect;
     addLegendRow(palette, row, std::min<int>(4, static_cast<int>(m_runs.size())));
     QCPAxis* y = rect->axis(QCPAxis::atLeft);   // warnings
     QCPAxis* x = rect->axis(QCPAxis::atBottom); // share
@@ -53,6 +58,7 @@ void WarningPrevalenceChart::rebuild(const ChartPalette& palette)
 
     const auto runCount = static_cast<double>(m_runs.size());
     const double barHeight = 0.8 / runCount;
+    m_barHeight = barHeight;
     const bool labels = m_runs.size() <= 4;
     double most = 0.0;
     for (std::size_t r = 0; r < m_runs.size(); ++r) {
@@ -79,12 +85,35 @@ void WarningPrevalenceChart::rebuild(const ChartPalette& palette)
                 text->setText(QLocale().toString(pct, 'f', pct < 10 && pct > 0 ? 1 : 0) + QStringLiteral(" %"));
                 text->setFont(chartFont(0.8));
                 text->setColor(palette.axis());
+                m_labels.emplace_back(text);
             }
         }
         bars->setData(keys, values, true);
     }
-    // Room on the right for the value labels.
-    setNiceRange(x, 0.0, std::max(1.0, most * 1.15), 5);
+    // Room on the right for the value labels, but no tick beyond 100 %.
+    const double high = std::max(1.0, most * 1.15);
+    if (high <= 100.0) {
+        setNiceRange(x, 0.0, high, 5);
+    } else {
+        QSharedPointer<QCPAxisTickerText> percent(new QCPAxisTickerText);
+        for (int t = 0; t <= 100; t += 25)
+            percent->addTick(t, QString::number(t));
+        x->setTicker(percent);
+        x->setRange(0.0, high);
+    }
+}
+
+void WarningPrevalenceChart::fitLabels()
+{
+    if (!m_rect || m_labels.empty())
+        return;
+    const double rows = static_cast<double>(core::allWarnings().size());
+    const double pixelsPerBar = m_rect->height() / std::max(1.0, rows) * m_barHeight;
+    const QFontMetrics metrics(chartFont(0.8));
+    const bool fits = pixelsPerBar >= 0.85 * metrics.height();
+    for (const auto& label : m_labels)
+        if (label)
+            label->setVisible(fits);
 }
 
 } // namespace slatewise::ui
