@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 #include "core/importer.h"
 
+#include "core/bulkinsert.h"
 #include "core/csvreader.h"
 #include "core/idmap.h"
 #include "core/migrate.h"
@@ -725,70 +726,24 @@ private:
 
 std::uint64_t pairKey(std::uint32_t user, std::uint32_t item) { return (std::uint64_t(user) << 32) | item; }
 
-/// Raw prepared statement for the bulk paths (the Statement wrapper clears bindings and
-/// checks every call, which costs a measurable share at ten million rows).
-class BulkInsert {
-public:
-    BulkInsert(const SqliteDb& db, const char* sql) : m_db(db.handle())
-    {
-        if (sqlite3_prepare_v2(m_db, sql, -1, &m_stmt, nullptr) != SQLITE_OK)
-            throw SqliteError(std::string("cannot prepare insert: ") + sqlite3_errmsg(m_db));
-    }
-    ~BulkInsert() { sqlite3_finalize(m_stmt); }
-    BulkInsert(const BulkInsert&) = delete;
-    BulkInsert& operator=(const BulkInsert&) = delete;
-    BulkInsert& i64(int i, std::int64_t v)
-    {
-        sqlite3_bind_int64(m_stmt, i, v);
-        return *this;
-    }
-    BulkInsert& real(int i, double v)
-    {
-        sqlite3_bind_double(m_stmt, i, v);
-        return *this;
-    }
-    BulkInsert& null(int i)
-    {
-        sqlite3_bind_null(m_stmt, i);
-        return *this;
-    }
-    BulkInsert& text(int i, std::string_view v)
-    {
-        sqlite3_bind_text(m_stmt, i, v.data(), static_cast<int>(v.size()), SQLITE_TRANSIENT);
-        return *this;
-    }
-    void run()
-    {
-        if (sqlite3_step(m_stmt) != SQLITE_DONE) {
-            const std::string message = sqlite3_errmsg(m_db);
-            sqlite3_reset(m_stmt);
-            throw SqliteError("insert failed: " + message);
-        }
-        sqlite3_reset(m_stmt);
-    }
-
-private:
-    sqlite3* m_db;
-    sqlite3_stmt* m_stmt = nullptr;
-};
-
 std::string baseName(const std::string& path) { return std::filesystem::path(path).filename().string(); }
 
 void insertSourceFile(const SqliteDb& db, std::optional<std::int64_t> runId, FileRole role, CsvReader& reader)
 {
-    BulkInsert ins(db, "INSERT INTO source_files(run_id, role, name, size, sha256) VALUES(?,?,?,?,?)");
+    BulkInsert ins(db, "source_files", {"run_id", "role", "name", "size", "sha256"});
     if (runId)
         ins.i64(1, *runId);
     else
         ins.null(1);
     ins.text(2, toString(role)).text(3, baseName(reader.path())).i64(4, static_cast<std::int64_t>(reader.size()));
     ins.text(5, reader.sha256()).run();
+    ins.finish();
 }
 
 void insertItems(const SqliteDb& db, const Catalog& catalog, std::uint32_t from)
 {
-    BulkInsert ins(db, "INSERT INTO items(item_id, external_id, title, year, series_id, series_part) VALUES(?,?,?,?,?,?)");
-    BulkInsert genre(db, "INSERT INTO item_genres(item_id, genre_id) VALUES(?,?)");
+    BulkInsert ins(db, "items", {"item_id", "external_id", "title", "year", "series_id", "series_part"});
+    BulkInsert genre(db, "item_genres", {"item_id", "genre_id"});
     for (std::uint32_t i = from; i < catalog.items.size(); ++i) {
         const Item& item = catalog.items[i];
         ins.i64(1, i).text(2, item.externalId).text(3, item.title);
@@ -804,19 +759,25 @@ void insertItems(const SqliteDb& db, const Catalog& catalog, std::uint32_t from)
         for (auto g : item.genres)
             genre.i64(1, i).i64(2, g).run();
     }
+    ins.finish();
+    genre.finish();
 }
 
-void insertNames(const SqliteDb& db, const char* sql, const IdMap& names, std::uint32_t from)
+/// Rows (index, name) of `names` from `from` on, into table(idColumn, nameColumn).
+void insertNames(const SqliteDb& db, std::string_view table, std::string_view idColumn, std::string_view nameColumn,
+                 const IdMap& names, std::uint32_t from)
 {
-    BulkInsert ins(db, sql);
+    BulkInsert ins(db, table, {idColumn, nameColumn});
     for (std::uint32_t i = from; i < names.size(); ++i)
         ins.i64(1, i).text(2, names.id(i)).run();
+    ins.finish();
 }
 
 void setMeta(const SqliteDb& db, const std::string& key, const std::string& value)
 {
-    BulkInsert ins(db, "INSERT OR REPLACE INTO meta(key, value) VALUES(?,?)");
+    BulkInsert ins(db, "meta", {"key", "value"}, 1, "INSERT OR REPLACE");
     ins.text(1, key).text(2, value).run();
+    ins.finish();
 }
 
 /// Flushes the temporary file to disk before it replaces the target, so a crash cannot
@@ -1046,7 +1007,7 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
 
     std::string writeFailure;
     try {
-        BulkInsert ins(db, "INSERT INTO train(user_id, item_id, rating, ts) VALUES(?,?,?,?)");
+        BulkInsert ins(db, "train", {"user_id", "item_id", "rating", "ts"});
         while (auto batch = queue.pop()) {
             if (!writeFailure.empty())
                 continue;
@@ -1059,6 +1020,8 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
                 ins.run();
             }
         }
+        if (writeFailure.empty())
+            ins.finish();
     } catch (const SqliteError& e) {
         writeFailure = e.what();
         queue.abandon();
@@ -1076,7 +1039,7 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
     try {
         meter.stage(1.0, "writing withheld rows and the catalog");
         {
-            BulkInsert ins(db, "INSERT INTO withheld(user_id, item_id, rating, ts) VALUES(?,?,?,?)");
+            BulkInsert ins(db, "withheld", {"user_id", "item_id", "rating", "ts"});
             for (const WithheldRow& row : withheld) {
                 ins.i64(1, row.user).i64(2, row.item).real(3, row.rating);
                 if (row.ts == kNoTimestamp)
@@ -1085,11 +1048,12 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
                     ins.i64(4, row.ts);
                 ins.run();
             }
+            ins.finish();
         }
-        insertNames(db, "INSERT INTO genres(genre_id, name) VALUES(?,?)", catalog.genres, 0);
-        insertNames(db, "INSERT INTO series(series_id, name) VALUES(?,?)", catalog.series, 0);
+        insertNames(db, "genres", "genre_id", "name", catalog.genres, 0);
+        insertNames(db, "series", "series_id", "name", catalog.series, 0);
         insertItems(db, catalog, 0);
-        insertNames(db, "INSERT INTO users(user_id, external_id) VALUES(?,?)", ctx.users, 0);
+        insertNames(db, "users", "user_id", "external_id", ctx.users, 0);
         insertSourceFile(db, std::nullopt, FileRole::Catalog, catalogReader);
         insertSourceFile(db, std::nullopt, FileRole::Train, trainReader);
         insertSourceFile(db, std::nullopt, FileRole::Withheld, withheldReader);
@@ -1472,18 +1436,20 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
             del.bind(1, *existingRun).run();
             report.replaced = true;
         }
-        insertNames(ws.db(), "INSERT INTO users(user_id, external_id) VALUES(?,?)", ctx.users, ctx.existingUsers);
+        insertNames(ws.db(), "users", "user_id", "external_id", ctx.users, ctx.existingUsers);
         {
-            BulkInsert ins(ws.db(), "INSERT INTO items(item_id, external_id, title) VALUES(?,?,'')");
+            BulkInsert ins(ws.db(), "items", {"item_id", "external_id", "title"});
             for (std::uint32_t i = ctx.existingItems; i < ctx.catalog.ids.size(); ++i)
-                ins.i64(1, i).text(2, ctx.catalog.ids.id(i)).run();
+                ins.i64(1, i).text(2, ctx.catalog.ids.id(i)).text(3, "").run();
+            ins.finish();
         }
         nlohmann::json settings{{"scores", request.scoresPath.empty() ? nlohmann::json() : nlohmann::json(baseName(request.scoresPath))},
                                 {"lists", request.listsPath.empty() ? nlohmann::json() : nlohmann::json(baseName(request.listsPath))},
                                 {"allow_unknown_items", request.options.allowUnknownItems}};
         {
-            BulkInsert ins(ws.db(), "INSERT INTO runs(name, created_at, settings, kind) VALUES(?,?,?,'imported')");
-            ins.text(1, request.name).text(2, utcNow()).text(3, settings.dump()).run();
+            BulkInsert ins(ws.db(), "runs", {"name", "created_at", "settings", "kind"}, 1);
+            ins.text(1, request.name).text(2, utcNow()).text(3, settings.dump()).text(4, "imported").run();
+            ins.finish();
         }
         report.runId = ws.db().lastInsertId();
         if (scoresReader)
@@ -1491,16 +1457,17 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
         if (listsReader)
             insertSourceFile(ws.db(), report.runId, FileRole::Lists, *listsReader);
         {
-            BulkInsert ins(ws.db(), "INSERT INTO run_scores(run_id, user_id, item_id, score) VALUES(?,?,?,?)");
+            BulkInsert ins(ws.db(), "run_scores", {"run_id", "user_id", "item_id", "score"});
             std::size_t n = 0;
             for (const ScoreRow& s : scores) {
                 ins.i64(1, report.runId).i64(2, s.user).i64(3, s.item).real(4, s.score).run();
                 if (++n % (1 << 16) == 0 && progress.cancelled())
                     return cancelledError();
             }
+            ins.finish();
         }
         {
-            BulkInsert ins(ws.db(), "INSERT INTO run_lists(run_id, user_id, rank, item_id, score) VALUES(?,?,?,?,?)");
+            BulkInsert ins(ws.db(), "run_lists", {"run_id", "user_id", "rank", "item_id", "score"});
             std::size_t n = 0;
             for (const ListRow& l : lists) {
                 ins.i64(1, report.runId).i64(2, l.user).i64(3, l.rank).i64(4, l.item);
@@ -1512,6 +1479,7 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
                 if (++n % (1 << 16) == 0 && progress.cancelled())
                     return cancelledError();
             }
+            ins.finish();
         }
         tx.commit();
     } catch (const SqliteError& e) {

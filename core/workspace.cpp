@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "core/workspace.h"
 
+#include "core/bulkinsert.h"
+
 #include "core/migrate.h"
 #include "core/parallel.h"
 #include "core/schema.h"
@@ -442,35 +444,32 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
         ins.run();
         const std::int64_t runId = m_db.lastInsertId();
         if (run.hasScores) {
-            Raw q(m_db.handle(), "INSERT INTO run_scores(run_id, user_id, item_id, score) VALUES(?,?,?,?)");
+            BulkInsert ins(m_db, "run_scores", {"run_id", "user_id", "item_id", "score"});
             for (std::size_t u = 0; u < data.userCount(); ++u) {
                 for (auto r = data.withheld.offsets[u]; r < data.withheld.offsets[u + 1]; ++r) {
                     if (std::isnan(run.scores[r]))
                         continue;
-                    sqlite3_bind_int64(q.get(), 1, runId);
-                    sqlite3_bind_int64(q.get(), 2, static_cast<std::int64_t>(u));
-                    sqlite3_bind_int64(q.get(), 3, data.withheld.rows[r].item.value);
-                    sqlite3_bind_double(q.get(), 4, run.scores[r]);
-                    q.done();
+                    ins.i64(1, runId).i64(2, static_cast<std::int64_t>(u)).i64(3, data.withheld.rows[r].item.value);
+                    ins.real(4, run.scores[r]).run();
                 }
             }
+            ins.finish();
         }
         if (run.hasLists) {
-            Raw q(m_db.handle(), "INSERT INTO run_lists(run_id, user_id, rank, item_id, score) VALUES(?,?,?,?,?)");
+            BulkInsert ins(m_db, "run_lists", {"run_id", "user_id", "rank", "item_id", "score"});
             for (std::size_t u = 0; u < data.userCount(); ++u) {
                 const auto list = run.listOf(UserIndex(static_cast<std::uint32_t>(u)));
                 for (std::size_t j = 0; j < list.size(); ++j) {
-                    sqlite3_bind_int64(q.get(), 1, runId);
-                    sqlite3_bind_int64(q.get(), 2, static_cast<std::int64_t>(u));
-                    sqlite3_bind_int64(q.get(), 3, static_cast<std::int64_t>(j + 1));
-                    sqlite3_bind_int64(q.get(), 4, list[j].item.value);
+                    ins.i64(1, runId).i64(2, static_cast<std::int64_t>(u)).i64(3, static_cast<std::int64_t>(j + 1));
+                    ins.i64(4, list[j].item.value);
                     if (std::isnan(list[j].score))
-                        sqlite3_bind_null(q.get(), 5);
+                        ins.null(5);
                     else
-                        sqlite3_bind_double(q.get(), 5, list[j].score);
-                    q.done();
+                        ins.real(5, list[j].score);
+                    ins.run();
                 }
             }
+            ins.finish();
         }
         tx.commit();
         return runId;
