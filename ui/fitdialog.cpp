@@ -5,6 +5,7 @@
 #include "core/modelsettings.h"
 #include "core/workspace.h"
 #include "ui/backgroundtask.h"
+#include "ui/exportcontextmenu.h"
 #include "ui/fitlosschart.h"
 #include "ui/format.h"
 
@@ -88,6 +89,7 @@ FitDialog::FitDialog(const QString& workspacePath, QWidget* parent)
         m_progress->setValue(static_cast<int>(fraction * 1000.0));
         m_status->setText(stage);
     });
+    ExportContextMenu::attach(m_chart); // save the loss curve like any other chart
     updateEnabled();
     resize(720, 640);
 }

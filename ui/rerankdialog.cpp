@@ -37,6 +37,9 @@ RerankDialog::RerankDialog(const QString& workspacePath, const QStringList& runN
     m_lambda->setSingleStep(0.05);
     m_lambdaHelp->setWordWrap(true);
     m_explanation->setWordWrap(true);
+    // Word-wrapped labels get a little more height than they need; keep the text at the top.
+    m_lambdaHelp->setAlignment(Qt::AlignLeft | Qt::AlignTop);
+    m_explanation->setAlignment(Qt::AlignLeft | Qt::AlignTop);
     m_status->setWordWrap(true);
 
     auto* form = new QFormLayout;

@@ -258,6 +258,13 @@ void TestFitDialog::rerank()
         expected.lambda = lambda;
     QCOMPARE(info->settingsJson, expected.toJson());
     QVERIFY(info->listUserCount > 0);
+    QVERIFY(dialog.statusText().contains(name));
+
+    const QString shots = qEnvironmentVariable("SLATEWISE_SHOT_DIR");
+    if (!shots.isEmpty()) {
+        dialog.layout()->activate();
+        QVERIFY(dialog.grab().save(QDir(shots).filePath(QStringLiteral("rerank-dialog-%1.png").arg(method))));
+    }
 }
 
 void TestFitDialog::cancelledRerankStoresNothing()
