@@ -120,20 +120,22 @@ void BandErrorChart::rebuild(const ChartPalette& palette)
     bottom->axis(QCPAxis::atLeft)->grid()->setZeroLinePen(QPen(palette.text(), 1.2));
 
     // Say which side is which right on the lower plot.
-    auto label = [&](double yFraction, const QString& text) {
+    // Runs tend to over-predict low ratings (left) and under-predict high ones (right), so
+    // each label goes to the corner its own bars rarely reach.
+    auto label = [&](double xFraction, double yFraction, Qt::Alignment side, const QString& text) {
         auto* item = new QCPItemText(plot());
         item->setClipToAxisRect(true);
         item->setClipAxisRect(bottom);
         item->position->setAxisRect(bottom);
         item->position->setType(QCPItemPosition::ptAxisRectRatio);
-        item->position->setCoords(0.01, yFraction);
-        item->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
+        item->position->setCoords(xFraction, yFraction);
+        item->setPositionAlignment(side | Qt::AlignVCenter);
         item->setText(text);
         item->setFont(chartFont(0.85));
         item->setColor(palette.axis());
     };
-    label(0.08, tr("▲ over-predicted"));
-    label(0.92, tr("▼ under-predicted"));
+    label(0.99, 0.08, Qt::AlignRight, tr("▲ over-predicted"));
+    label(0.01, 0.92, Qt::AlignLeft, tr("▼ under-predicted"));
 
     plot()->plotLayout()->setRowStretchFactor(row - 2, 3);
     plot()->plotLayout()->setRowStretchFactor(row - 1, 2.6); // this row also holds the two-line x labels

@@ -335,7 +335,10 @@ QString MeetingPack::verdict(const PackComparisonRow& row)
 {
     const bool adjusted = row.pHolm >= 0;
     const double p = adjusted ? row.pHolm : row.pT;
-    const QString pText = adjusted ? tr("Holm-adjusted p = %1").arg(pValue(p)) : tr("p = %1").arg(pValue(p));
+    // "p < 0.001", not "p = < 0.001".
+    const QString shown = pValue(p);
+    const QString relation = shown.startsWith(QLatin1Char('<')) ? shown : QStringLiteral("= ") + shown;
+    const QString pText = adjusted ? tr("Holm-adjusted p %1").arg(relation) : tr("p %1").arg(relation);
     const QString interval = tr("the 95% interval %1 to %2").arg(signedNum(row.ciLow, 4), signedNum(row.ciHigh, 4));
     if (row.n < 30)
         return tr("too few users to judge (n = %1, under 30)").arg(row.n);

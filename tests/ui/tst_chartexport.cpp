@@ -291,8 +291,11 @@ private slots:
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("significant: candidate better")));
         row.higherIsBetter = false; // e.g. rmse: a rise is worse
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("significant: candidate worse")));
+        row.pHolm = 0.0004;
+        QVERIFY2(MeetingPack::verdict(row).contains(QStringLiteral("Holm-adjusted p < 0.001")), qPrintable(MeetingPack::verdict(row)));
         row.pHolm = 0.2; // adjusted p decides when given
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("not significant")));
+        QVERIFY2(MeetingPack::verdict(row).contains(QStringLiteral("Holm-adjusted p = 0.200")), qPrintable(MeetingPack::verdict(row)));
         row.n = 12;
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("too few users")));
     }

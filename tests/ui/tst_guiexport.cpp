@@ -27,6 +27,8 @@
 #include <QImage>
 #include <QItemSelectionModel>
 #include <QMenu>
+#include <QProcess>
+#include <QRegularExpression>
 #include <QSignalSpy>
 #include <QStandardItemModel>
 #include <QStandardPaths>
@@ -128,6 +130,23 @@ std::vector<QStringList> parseCsv(const QString& text)
         records.push_back(record);
     }
     return records;
+}
+
+/// Page count as Debian's poppler-utils `pdfinfo` reads it (an outside PDF parser; installed by
+/// scripts/install-deps.sh); -1 when pdfinfo is not there.
+int pdfinfoPages(const QString& path)
+{
+    const QString tool = QStandardPaths::findExecutable(QStringLiteral("pdfinfo"));
+    if (tool.isEmpty())
+        return -1;
+    QProcess process;
+    process.start(tool, {path});
+    if (!process.waitForFinished(60000) || process.exitCode() != 0)
+        return 0;
+    const QString out = QString::fromUtf8(process.readAllStandardOutput());
+    static const QRegularExpression pages(QStringLiteral("^Pages:\\s+(\\d+)"), QRegularExpression::MultilineOption);
+    const auto match = pages.match(out);
+    return match.hasMatch() ? match.captured(1).toInt() : 0;
 }
 
 bool isPlainNumber(const QString& text)
@@ -295,6 +314,8 @@ void TestGuiExport::screenChartsAsSvgAndPdf()
         QVERIFY2(bytes.startsWith("%PDF-1."), qPrintable(path));
         QVERIFY(bytes.trimmed().endsWith("%%EOF"));
         QCOMPARE(pdfPageCount(bytes), 1);
+        const int outside = pdfinfoPages(path);
+        QVERIFY2(outside == -1 || outside == 1, qPrintable(path)); // poppler parses it as one page
     }
 }
 
@@ -454,6 +475,9 @@ void TestGuiExport::meetingPackIsMultiPage()
     const int pages = pdfPageCount(bytes);
     QVERIFY2(pages > 1, qPrintable(QString::number(pages)));
     QVERIFY2(pages >= 5, qPrintable(QString::number(pages)));
+    // An outside reader agrees (poppler-utils pdfinfo).
+    const int outside = pdfinfoPages(path);
+    QVERIFY2(outside == -1 || outside == pages, qPrintable(QString::number(outside)));
     // The next one-click pack does not overwrite this one.
     QVERIFY(m_window->defaultMeetingPackPath() != path);
 }
