@@ -122,20 +122,21 @@ void BandErrorChart::rebuild(const ChartPalette& palette)
     // Say which side is which right on the lower plot.
     // Runs tend to over-predict low ratings (left) and under-predict high ones (right), so
     // each label goes to the corner its own bars rarely reach.
-    auto label = [&](double xFraction, double yFraction, Qt::Alignment side, const QString& text) {
+    auto label = [&](double xFraction, double yFraction, Qt::Alignment align, const QString& text) {
         auto* item = new QCPItemText(plot());
         item->setClipToAxisRect(true);
         item->setClipAxisRect(bottom);
         item->position->setAxisRect(bottom);
         item->position->setType(QCPItemPosition::ptAxisRectRatio);
         item->position->setCoords(xFraction, yFraction);
-        item->setPositionAlignment(side | Qt::AlignVCenter);
+        item->setPositionAlignment(align);
         item->setText(text);
         item->setFont(chartFont(0.85));
         item->setColor(palette.axis());
     };
-    label(0.99, 0.08, Qt::AlignRight, tr("▲ over-predicted"));
-    label(0.01, 0.92, Qt::AlignLeft, tr("▼ under-predicted"));
+    // Anchored to the plot's top and bottom edges, so a low plot does not cut them off.
+    label(0.99, 0.0, Qt::AlignRight | Qt::AlignTop, tr("▲ over-predicted"));
+    label(0.01, 1.0, Qt::AlignLeft | Qt::AlignBottom, tr("▼ under-predicted"));
 
     plot()->plotLayout()->setRowStretchFactor(row - 2, 3);
     plot()->plotLayout()->setRowStretchFactor(row - 1, 2.6); // this row also holds the two-line x labels

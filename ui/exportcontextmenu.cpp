@@ -15,7 +15,6 @@
 #include <QMessageBox>
 #include <QPointer>
 #include <QTableView>
-
 #include <qcustomplot.h>
 
 namespace slatewise::ui {
@@ -133,20 +132,22 @@ void ExportContextMenu::saveChartInteractively(ChartView* chart, ScreenExport::F
     }
     const QString suffix = ScreenExport::suffix(format);
     const QString proposed = QDir(ExportSettings::lastFolder()).filePath(chart->fileStem() + QLatin1Char('.') + suffix);
-    QString path = QFileDialog::getSaveFileName(chart->window(), QObject::tr("Save chart"), proposed, filterFor(format));
+    QString path
+        = QFileDialog::getSaveFileName(chart->window(), QObject::tr("Save chart"), proposed, filterFor(format));
     if (path.isEmpty())
         return;
     path = withSuffix(path, suffix);
     ExportSettings::rememberPath(path);
-    reportStatus(chart->window(), ScreenExport::saveChart(*chart, path, format, png), QObject::tr("Cannot save the chart"));
+    reportStatus(
+        chart->window(), ScreenExport::saveChart(*chart, path, format, png), QObject::tr("Cannot save the chart"));
 }
 
 void ExportContextMenu::saveTableInteractively(QTableView* table)
 {
     const QString stem = table->objectName().isEmpty() ? QStringLiteral("table") : table->objectName();
     const QString proposed = QDir(ExportSettings::lastFolder()).filePath(stem + QStringLiteral(".csv"));
-    QString path = QFileDialog::getSaveFileName(table->window(), QObject::tr("Save table as CSV"), proposed,
-                                                QObject::tr("CSV table (*.csv)"));
+    QString path = QFileDialog::getSaveFileName(
+        table->window(), QObject::tr("Save table as CSV"), proposed, QObject::tr("CSV table (*.csv)"));
     if (path.isEmpty())
         return;
     path = withSuffix(path, QStringLiteral("csv"));

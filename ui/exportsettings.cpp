@@ -20,7 +20,8 @@ const QString kDpiKey = QStringLiteral("export/pngDpi");
 QSize ExportSettings::Png::logicalSize() const
 {
     const double scale = std::max(24, dpi) / 96.0;
-    return {std::max(16, static_cast<int>(pixels.width() / scale + 0.5)), std::max(16, static_cast<int>(pixels.height() / scale + 0.5))};
+    return { std::max(16, static_cast<int>(pixels.width() / scale + 0.5)),
+        std::max(16, static_cast<int>(pixels.height() / scale + 0.5)) };
 }
 
 ExportSettings::Png ExportSettings::png()

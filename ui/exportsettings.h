@@ -12,7 +12,7 @@ class ExportSettings {
 public:
     /// PNG output: pixels and the resolution stored in the file. Defaults match `slatewise export`.
     struct Png {
-        QSize pixels{1600, 1000};
+        QSize pixels { 1600, 1000 };
         int dpi = 144;
         /// The logical size charts are laid out at, so text keeps its physical size (96 dpi = 1:1).
         QSize logicalSize() const;

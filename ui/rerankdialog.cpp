@@ -21,10 +21,19 @@
 namespace slatewise::ui {
 
 RerankDialog::RerankDialog(const QString& workspacePath, const QStringList& runNames, QWidget* parent)
-    : QDialog(parent), m_path(workspacePath), m_parent(new QComboBox(this)), m_method(new QComboBox(this)),
-      m_lambda(new QDoubleSpinBox(this)), m_lambdaHelp(new QLabel(this)), m_name(new QLineEdit(this)), m_explanation(new QLabel(this)),
-      m_progress(new QProgressBar(this)), m_status(new QLabel(this)), m_start(new QPushButton(tr("&Re-rank"), this)),
-      m_cancel(new QPushButton(tr("Cancel re-ranking"), this)), m_task(new BackgroundTask(this))
+    : QDialog(parent)
+    , m_path(workspacePath)
+    , m_parent(new QComboBox(this))
+    , m_method(new QComboBox(this))
+    , m_lambda(new QDoubleSpinBox(this))
+    , m_lambdaHelp(new QLabel(this))
+    , m_name(new QLineEdit(this))
+    , m_explanation(new QLabel(this))
+    , m_progress(new QProgressBar(this))
+    , m_status(new QLabel(this))
+    , m_start(new QPushButton(tr("&Re-rank"), this))
+    , m_cancel(new QPushButton(tr("Cancel re-ranking"), this))
+    , m_task(new BackgroundTask(this))
 {
     setWindowTitle(tr("Re-rank a run (what-if)"));
     m_parent->addItems(runNames);
@@ -218,11 +227,12 @@ bool RerankDialog::startRerank()
                 return;
             }
             m_progress->setValue(1000);
-            m_status->setText(tr("Stored run “%1” (lists of %2 users re-ranked from “%3”). Compare it with its parent on "
-                                 "the Compare runs screen.")
-                                  .arg(name)
-                                  .arg(outcome->users)
-                                  .arg(parent));
+            m_status->setText(
+                tr("Stored run “%1” (lists of %2 users re-ranked from “%3”). Compare it with its parent on "
+                   "the Compare runs screen.")
+                    .arg(name)
+                    .arg(outcome->users)
+                    .arg(parent));
             emit reranked(name);
         });
 }

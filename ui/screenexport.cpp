@@ -55,7 +55,7 @@ QString ScreenExport::suffix(Format format)
 bool ScreenExport::formatFromPath(const QString& path, Format& format)
 {
     const QString s = QFileInfo(path).suffix().toLower();
-    for (const Format f : {Format::Png, Format::Svg, Format::Pdf}) {
+    for (const Format f : { Format::Png, Format::Svg, Format::Pdf }) {
         if (s == suffix(f)) {
             format = f;
             return true;
@@ -66,12 +66,12 @@ bool ScreenExport::formatFromPath(const QString& path, Format& format)
 
 QList<ChartView*> ScreenExport::charts(const QWidget* screen)
 {
-    return screen ? screen->findChildren<ChartView*>() : QList<ChartView*>{};
+    return screen ? screen->findChildren<ChartView*>() : QList<ChartView*> {};
 }
 
 QList<QTableView*> ScreenExport::tables(const QWidget* screen)
 {
-    return screen ? screen->findChildren<QTableView*>() : QList<QTableView*>{};
+    return screen ? screen->findChildren<QTableView*>() : QList<QTableView*> {};
 }
 
 QString ScreenExport::tableStem(const QTableView& table, int index)
@@ -83,12 +83,13 @@ QSize ScreenExport::vectorSize(const ChartView& chart)
 {
     if (chart.isVisible() && chart.width() >= 200 && chart.height() >= 150)
         return chart.size();
-    return {1000, 625};
+    return { 1000, 625 };
 }
 
-core::Status ScreenExport::saveChart(ChartView& chart, const QString& path, Format format, const ExportSettings::Png& png)
+core::Status ScreenExport::saveChart(
+    ChartView& chart, const QString& path, Format format, const ExportSettings::Png& png)
 {
-    core::Status status = core::Done{};
+    core::Status status = core::Done {};
     switch (format) {
     case Format::Png:
         status = ChartExporter::savePng(chart, path, png.pixels, png.dpi);
@@ -118,8 +119,8 @@ core::Status ScreenExport::saveTable(const QTableView& table, const QString& pat
     return CsvExporter::write(*table.model(), path);
 }
 
-core::Result<QStringList> ScreenExport::saveCharts(const QWidget* screen, const QString& folder, Format format,
-                                                   const ExportSettings::Png& png)
+core::Result<QStringList> ScreenExport::saveCharts(
+    const QWidget* screen, const QString& folder, Format format, const ExportSettings::Png& png)
 {
     if (!QDir().mkpath(folder))
         return folderError(folder);

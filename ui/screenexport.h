@@ -37,13 +37,14 @@ public:
     /// Size for vector output: the chart as laid out on screen, or 1000 × 625 when it is not shown.
     static QSize vectorSize(const ChartView& chart);
     /// One chart to `path`; `png` is used for PNG only.
-    static core::Status saveChart(ChartView& chart, const QString& path, Format format, const ExportSettings::Png& png = {});
+    static core::Status saveChart(
+        ChartView& chart, const QString& path, Format format, const ExportSettings::Png& png = {});
     /// One table to `path` as CSV, rows in the order shown.
     static core::Status saveTable(const QTableView& table, const QString& path);
 
     /// Every chart of `screen` into `folder` as "<stem>.<suffix>"; returns the files written.
-    static core::Result<QStringList> saveCharts(const QWidget* screen, const QString& folder, Format format,
-                                                const ExportSettings::Png& png = {});
+    static core::Result<QStringList> saveCharts(
+        const QWidget* screen, const QString& folder, Format format, const ExportSettings::Png& png = {});
     /// Every table of `screen` into `folder` as "<stem>.csv"; returns the files written.
     static core::Result<QStringList> saveTables(const QWidget* screen, const QString& folder);
 

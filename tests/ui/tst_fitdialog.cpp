@@ -7,7 +7,6 @@
 #include "core/run.h"
 #include "core/sqlitedb.h"
 #include "core/workspace.h"
-#include "support/testsupport.h"
 #include "ui/backgroundtask.h"
 #include "ui/fitdialog.h"
 #include "ui/fitlosschart.h"
@@ -22,10 +21,11 @@
 #include <QStandardPaths>
 #include <QTemporaryDir>
 #include <QTest>
-
 #include <qcustomplot.h>
 
 #include <cmath>
+
+#include "support/testsupport.h"
 
 using namespace slatewise;
 using namespace slatewise::ui;
@@ -89,12 +89,14 @@ void TestFitDialog::initTestCase()
     QStandardPaths::setTestModeEnabled(true);
     QVERIFY(m_dir.isValid());
     m_demo = m_dir.filePath(QStringLiteral("film-club.sqlite"));
-    auto demo = test::runCli({QStringLiteral("demo"), m_demo, QStringLiteral("--quiet")});
+    auto demo = test::runCli({ QStringLiteral("demo"), m_demo, QStringLiteral("--quiet") });
     if (demo.exitCode != 0) {
         const QString files = m_dir.filePath(QStringLiteral("demo-files"));
-        const auto data = test::runCli({QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet")});
+        const auto data
+            = test::runCli({ QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet") });
         QVERIFY2(data.exitCode == 0, qPrintable(data.err));
-        demo = test::runCli({QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet")});
+        demo = test::runCli(
+            { QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet") });
     }
     QVERIFY2(demo.exitCode == 0, qPrintable(demo.err));
     const auto names = runNames(m_demo);
@@ -138,8 +140,8 @@ void TestFitDialog::fitBias()
     core::ModelSettings expected;
     expected.kind = core::ModelKind::Bias;
     expected.biasIterations = 6;
-    expected.iterations = core::ModelSettings{}.iterations;
-    expected.rank = core::ModelSettings{}.rank;
+    expected.iterations = core::ModelSettings {}.iterations;
+    expected.rank = core::ModelSettings {}.rank;
     QCOMPARE(info->settingsJson, expected.toJson());
     QVERIFY(info->scoreCount > 0);
     QVERIFY(info->listUserCount > 0);
@@ -194,8 +196,7 @@ void TestFitDialog::fitTinyAls()
     }
     // A picture to look at while developing (SLATEWISE_SHOT_DIR=/some/dir).
     const QString shots = qEnvironmentVariable("SLATEWISE_SHOT_DIR");
-    if (!shots.isEmpty())
-    {
+    if (!shots.isEmpty()) {
         dialog.layout()->activate();
         QVERIFY(dialog.grab().save(QDir(shots).filePath(QStringLiteral("fit-dialog.png"))));
     }
@@ -233,7 +234,7 @@ void TestFitDialog::rerank()
 {
     QFETCH(QString, method);
     QFETCH(double, lambda);
-    RerankDialog dialog(m_demo, QStringList{m_firstRun});
+    RerankDialog dialog(m_demo, QStringList { m_firstRun });
     dialog.setParentRun(m_firstRun);
     dialog.setMethod(method);
     if (lambda >= 0)
@@ -271,7 +272,7 @@ void TestFitDialog::cancelledRerankStoresNothing()
 {
     const QByteArray before = sha256(m_demo);
     const auto namesBefore = runNames(m_demo);
-    RerankDialog dialog(m_demo, QStringList{m_firstRun});
+    RerankDialog dialog(m_demo, QStringList { m_firstRun });
     dialog.setMethod(QStringLiteral("mmr"));
     dialog.setRunName(QStringLiteral("gui-rerank-cancelled"));
     QSignalSpy reranked(&dialog, &RerankDialog::reranked);

@@ -5,7 +5,6 @@
 // right-click menus, the remembered export choices and the one-click meeting pack (several
 // pages, written on the worker thread, cancel writes nothing).
 #include "core/evaluation.h"
-#include "support/testsupport.h"
 #include "ui/backgroundtask.h"
 #include "ui/chartview.h"
 #include "ui/comparescreen.h"
@@ -36,11 +35,12 @@
 #include <QTemporaryDir>
 #include <QTest>
 #include <QXmlStreamReader>
-
 #include <qcustomplot.h>
 
 #include <functional>
 #include <memory>
+
+#include "support/testsupport.h"
 
 using namespace slatewise;
 using namespace slatewise::ui;
@@ -67,10 +67,12 @@ QSize pngHeaderSize(const QByteArray& bytes)
     if (bytes.size() < 24 || bytes.mid(12, 4) != "IHDR")
         return {};
     const auto be32 = [&](int at) {
-        return (static_cast<quint32>(static_cast<quint8>(bytes[at])) << 24) | (static_cast<quint32>(static_cast<quint8>(bytes[at + 1])) << 16) |
-               (static_cast<quint32>(static_cast<quint8>(bytes[at + 2])) << 8) | static_cast<quint32>(static_cast<quint8>(bytes[at + 3]));
+        return (static_cast<quint32>(static_cast<quint8>(bytes[at])) << 24)
+            | (static_cast<quint32>(static_cast<quint8>(bytes[at + 1])) << 16)
+            | (static_cast<quint32>(static_cast<quint8>(bytes[at + 2])) << 8)
+            | static_cast<quint32>(static_cast<quint8>(bytes[at + 3]));
     };
-    return {static_cast<int>(be32(16)), static_cast<int>(be32(20))};
+    return { static_cast<int>(be32(16)), static_cast<int>(be32(20)) };
 }
 
 int pdfPageCount(const QByteArray& pdf)
@@ -78,7 +80,7 @@ int pdfPageCount(const QByteArray& pdf)
     // Page objects are "/Type /Page" (or "/Type/Page"); "/Pages" is the tree node, not a page
     // (PDF 1.7 reference, ISO 32000-1, section 7.7.3).
     int count = 0;
-    for (const QByteArray& needle : {QByteArray("/Type /Page"), QByteArray("/Type/Page")}) {
+    for (const QByteArray& needle : { QByteArray("/Type /Page"), QByteArray("/Type/Page") }) {
         qsizetype from = 0;
         while ((from = pdf.indexOf(needle, from)) >= 0) {
             from += needle.size();
@@ -140,7 +142,7 @@ int pdfinfoPages(const QString& path)
     if (tool.isEmpty())
         return -1;
     QProcess process;
-    process.start(tool, {path});
+    process.start(tool, { path });
     if (!process.waitForFinished(60000) || process.exitCode() != 0)
         return 0;
     const QString out = QString::fromUtf8(process.readAllStandardOutput());
@@ -191,13 +193,15 @@ void TestGuiExport::initTestCase()
     QCoreApplication::setApplicationName(QStringLiteral("tst_guiexport"));
     QVERIFY(m_dir.isValid());
     m_demo = m_dir.filePath(QStringLiteral("film-club.sqlite"));
-    auto demo = test::runCli({QStringLiteral("demo"), m_demo, QStringLiteral("--quiet")});
+    auto demo = test::runCli({ QStringLiteral("demo"), m_demo, QStringLiteral("--quiet") });
     if (demo.exitCode != 0) {
         // Without committed demo files, regenerate them first (the same seeded generator).
         const QString files = m_dir.filePath(QStringLiteral("demo-files"));
-        const auto data = test::runCli({QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet")});
+        const auto data
+            = test::runCli({ QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet") });
         QVERIFY2(data.exitCode == 0, qPrintable(data.err));
-        demo = test::runCli({QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet")});
+        demo = test::runCli(
+            { QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet") });
     }
     QVERIFY2(demo.exitCode == 0, qPrintable(demo.err));
 
@@ -248,7 +252,7 @@ void TestGuiExport::screenChartsAsPng()
     QFETCH(int, dpi);
     m_window->showScreen(static_cast<MainWindow::Screen>(screen));
     const QString dir = outDir(QStringLiteral("png-%1").arg(screen));
-    const auto written = m_window->saveScreenCharts(dir, ScreenExport::Format::Png, {pixels, dpi});
+    const auto written = m_window->saveScreenCharts(dir, ScreenExport::Format::Png, { pixels, dpi });
     QVERIFY2(written.ok(), written.ok() ? "" : written.error().toString().c_str());
     QCOMPARE(written->size(), charts);
     for (const QString& path : *written) {
@@ -259,7 +263,8 @@ void TestGuiExport::screenChartsAsPng()
         const QImage image(path);
         QCOMPARE(image.size(), pixels);
         // The pHYs chunk holds pixels per metre; 1 inch = 0.0254 m (common practice).
-        QVERIFY2(std::abs(image.dotsPerMeterX() - dpi / 0.0254) < 1.0, qPrintable(QString::number(image.dotsPerMeterX())));
+        QVERIFY2(
+            std::abs(image.dotsPerMeterX() - dpi / 0.0254) < 1.0, qPrintable(QString::number(image.dotsPerMeterX())));
         // A drawn chart, not a blank canvas: more than one colour appears.
         const QColor corner = image.pixelColor(0, 0);
         bool varied = false;
@@ -284,7 +289,8 @@ void TestGuiExport::screenChartsAsSvgAndPdf()
     QFETCH(int, screen);
     QFETCH(int, charts);
     m_window->showScreen(static_cast<MainWindow::Screen>(screen));
-    const auto svgs = m_window->saveScreenCharts(outDir(QStringLiteral("svg-%1").arg(screen)), ScreenExport::Format::Svg);
+    const auto svgs
+        = m_window->saveScreenCharts(outDir(QStringLiteral("svg-%1").arg(screen)), ScreenExport::Format::Svg);
     QVERIFY(svgs.ok());
     QCOMPARE(svgs->size(), charts);
     for (const QString& path : *svgs) {
@@ -305,7 +311,8 @@ void TestGuiExport::screenChartsAsSvgAndPdf()
         QCOMPARE(root, QStringLiteral("svg"));
         QVERIFY2(texts > 3, qPrintable(path)); // title, axis labels and ticks are text
     }
-    const auto pdfs = m_window->saveScreenCharts(outDir(QStringLiteral("pdf-%1").arg(screen)), ScreenExport::Format::Pdf);
+    const auto pdfs
+        = m_window->saveScreenCharts(outDir(QStringLiteral("pdf-%1").arg(screen)), ScreenExport::Format::Pdf);
     QVERIFY(pdfs.ok());
     QCOMPARE(pdfs->size(), charts);
     for (const QString& path : *pdfs) {
@@ -333,12 +340,12 @@ void TestGuiExport::screenTablesAsCsv()
     QCOMPARE(records.front().size(), shown->columnCount());
     for (int c = 0; c < shown->columnCount(); ++c)
         QCOMPARE(records.front()[c], shown->headerData(c, Qt::Horizontal).toString());
-    for (int r : {0, 1, shown->rowCount() - 1})
+    for (int r : { 0, 1, shown->rowCount() - 1 })
         QCOMPARE(records[static_cast<std::size_t>(r) + 1][0], shown->data(shown->index(r, 0)).toString());
 
     // Every table of every screen: no cell a spreadsheet would run as a formula (OWASP "CSV
     // Injection" advice, from memory): a field starting with = + - @ tab or CR is a number.
-    for (const auto screen : {MainWindow::Overview, MainWindow::Users, MainWindow::Inspector, MainWindow::Compare}) {
+    for (const auto screen : { MainWindow::Overview, MainWindow::Users, MainWindow::Inspector, MainWindow::Compare }) {
         m_window->showScreen(screen);
         const auto files = m_window->saveScreenTables(outDir(QStringLiteral("csv-%1").arg(int(screen))));
         QVERIFY(files.ok());
@@ -353,8 +360,9 @@ void TestGuiExport::screenTablesAsCsv()
                     if (cell.isEmpty())
                         continue;
                     const QChar first = cell.front();
-                    const bool risky = first == QLatin1Char('=') || first == QLatin1Char('+') || first == QLatin1Char('-') ||
-                                       first == QLatin1Char('@') || first == QLatin1Char('\t') || first == QLatin1Char('\r');
+                    const bool risky = first == QLatin1Char('=') || first == QLatin1Char('+')
+                        || first == QLatin1Char('-') || first == QLatin1Char('@') || first == QLatin1Char('\t')
+                        || first == QLatin1Char('\r');
                     QVERIFY2(!risky || isPlainNumber(cell), qPrintable(path + QStringLiteral(": ") + cell));
                 }
             }
@@ -366,9 +374,9 @@ void TestGuiExport::csvEscapesFormulasFromAView()
 {
     // The same path as "Save table as CSV…" on a table whose cells try to run formulas.
     QStandardItemModel model(5, 2);
-    model.setHorizontalHeaderLabels({QStringLiteral("=title"), QStringLiteral("value")});
-    const QStringList texts{QStringLiteral("=HYPERLINK(\"x\")"), QStringLiteral("+1+1"), QStringLiteral("-2+3"), QStringLiteral("@SUM(A1)"),
-                            QStringLiteral("\tx")};
+    model.setHorizontalHeaderLabels({ QStringLiteral("=title"), QStringLiteral("value") });
+    const QStringList texts { QStringLiteral("=HYPERLINK(\"x\")"), QStringLiteral("+1+1"), QStringLiteral("-2+3"),
+        QStringLiteral("@SUM(A1)"), QStringLiteral("\tx") };
     for (int r = 0; r < texts.size(); ++r) {
         model.setItem(r, 0, new QStandardItem(texts[r]));
         auto* number = new QStandardItem;
@@ -394,7 +402,7 @@ void TestGuiExport::csvEscapesFormulasFromAView()
 void TestGuiExport::contextMenusOnEveryChartAndTable()
 {
     int charts = 0, tables = 0;
-    for (const auto screen : {MainWindow::Overview, MainWindow::Users, MainWindow::Inspector, MainWindow::Compare}) {
+    for (const auto screen : { MainWindow::Overview, MainWindow::Users, MainWindow::Inspector, MainWindow::Compare }) {
         for (ChartView* chart : ScreenExport::charts(m_window->screenWidget(screen))) {
             ++charts;
             QCOMPARE(chart->plot()->contextMenuPolicy(), Qt::CustomContextMenu);
@@ -402,8 +410,9 @@ void TestGuiExport::contextMenusOnEveryChartAndTable()
             QStringList texts;
             for (QAction* a : menu->actions())
                 texts << a->text().remove(QLatin1Char('&'));
-            QCOMPARE(texts, (QStringList{QStringLiteral("Save chart as PNG…"), QStringLiteral("Save chart as SVG…"),
-                                         QStringLiteral("Save chart as PDF…")}));
+            QCOMPARE(texts,
+                (QStringList { QStringLiteral("Save chart as PNG…"), QStringLiteral("Save chart as SVG…"),
+                    QStringLiteral("Save chart as PDF…") }));
         }
         for (QTableView* table : ScreenExport::tables(m_window->screenWidget(screen))) {
             ++tables;
@@ -413,7 +422,7 @@ void TestGuiExport::contextMenusOnEveryChartAndTable()
             QStringList texts;
             for (QAction* a : menu->actions())
                 texts << a->text().remove(QLatin1Char('&'));
-            QCOMPARE(texts, (QStringList{QStringLiteral("Copy"), QStringLiteral("Save table as CSV…")}));
+            QCOMPARE(texts, (QStringList { QStringLiteral("Copy"), QStringLiteral("Save table as CSV…") }));
         }
     }
     QCOMPARE(charts, 7);
@@ -426,7 +435,8 @@ void TestGuiExport::copyPutsSelectedRowsOnClipboard()
     QTableView* table = ScreenExport::tables(m_window->screenWidget(MainWindow::Overview)).front();
     QAbstractItemModel* model = table->model();
     QVERIFY(model->rowCount() >= 2);
-    table->selectionModel()->select(model->index(1, 0), QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
+    table->selectionModel()->select(
+        model->index(1, 0), QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
     ExportContextMenu::copyTable(table);
     const QStringList lines = QApplication::clipboard()->text().split(QLatin1Char('\n'), Qt::SkipEmptyParts);
     QCOMPARE(lines.size(), 2); // header and the one selected row
@@ -438,7 +448,7 @@ void TestGuiExport::copyPutsSelectedRowsOnClipboard()
 
 void TestGuiExport::pngChoicesAreRemembered()
 {
-    ExportSettings::setPng({QSize(1234, 567), 200});
+    ExportSettings::setPng({ QSize(1234, 567), 200 });
     const auto png = ExportSettings::png();
     QCOMPARE(png.pixels, QSize(1234, 567));
     QCOMPARE(png.dpi, 200);
