@@ -3,6 +3,7 @@
 
 #include "core/bulkinsert.h"
 #include "core/csvreader.h"
+#include "core/runcounts.h"
 #include "core/idmap.h"
 #include "core/migrate.h"
 #include "core/schema.h"
@@ -1481,6 +1482,8 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
             }
             ins.finish();
         }
+        recordRunCounts(ws.db(), report.runId, static_cast<std::int64_t>(scores.size()), report.listRows,
+                        report.listUsers);
         tx.commit();
     } catch (const SqliteError& e) {
         return workspaceError(request.workspacePath, std::string("cannot write run: ") + e.what());

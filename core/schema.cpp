@@ -138,13 +138,26 @@ CREATE TABLE fit_log(
 UPDATE meta SET value = '2' WHERE key = 'schema_version';
 )sql";
 
+// Version 3: each run records its row counts when it is stored, so listing the runs of a
+// large workspace reads three numbers instead of scanning millions of list rows.
+constexpr std::string_view kV2toV3 = R"sql(
+ALTER TABLE runs ADD COLUMN score_count INTEGER;
+ALTER TABLE runs ADD COLUMN list_rows INTEGER;
+ALTER TABLE runs ADD COLUMN list_users INTEGER;
+UPDATE runs SET
+  score_count = (SELECT count(*) FROM run_scores s WHERE s.run_id = runs.run_id),
+  list_rows = (SELECT count(*) FROM run_lists l WHERE l.run_id = runs.run_id),
+  list_users = (SELECT count(*) FROM run_lists l WHERE l.run_id = runs.run_id AND l.rank = 1);
+UPDATE meta SET value = '3' WHERE key = 'schema_version';
+)sql";
+
 } // namespace
 
 std::string_view schemaVersion1() { return kV1; }
 
 const std::vector<std::string_view>& migrations()
 {
-    static const std::vector<std::string_view> steps{kV1toV2};
+    static const std::vector<std::string_view> steps{kV1toV2, kV2toV3};
     return steps;
 }
 

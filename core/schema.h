@@ -7,7 +7,7 @@
 namespace slatewise::core {
 
 /// The workspace schema version this build writes. docs/workspace.md describes it.
-inline constexpr int kSchemaVersion = 2;
+inline constexpr int kSchemaVersion = 3;
 
 /// SQL that creates a version-1 workspace (kept so that migrations are tested from it).
 std::string_view schemaVersion1();

@@ -2,6 +2,7 @@
 #include "core/workspace.h"
 
 #include "core/bulkinsert.h"
+#include "core/runcounts.h"
 
 #include "core/migrate.h"
 #include "core/parallel.h"
@@ -179,12 +180,14 @@ Result<std::vector<RunInfo>> Workspace::runs() const
 {
     try {
         std::vector<RunInfo> out;
-        // Every user's list has exactly one rank-1 entry (ranks are 1..n), so counting rank 1
-        // counts users with a list without a DISTINCT pass.
+        // Counts recorded when the run was stored; a run added by other means is counted here
+        // (coalesce evaluates its second argument only when the first is NULL). Every user's
+        // list has exactly one rank-1 entry, so counting rank 1 counts users with a list.
         Statement q(m_db, "SELECT r.run_id, r.name, r.kind, r.created_at, p.name, r.method, r.settings,"
-                          " (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id),"
-                          " (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id),"
-                          " (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id AND l.rank = 1)"
+                          " coalesce(r.score_count, (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id)),"
+                          " coalesce(r.list_rows, (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id)),"
+                          " coalesce(r.list_users,"
+                          "   (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id AND l.rank = 1))"
                           " FROM runs r LEFT JOIN runs p ON p.run_id = r.parent_run_id ORDER BY r.run_id");
         while (q.step()) {
             RunInfo info;
@@ -443,6 +446,7 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
             ins.bind(6, run.info.method);
         ins.run();
         const std::int64_t runId = m_db.lastInsertId();
+        std::int64_t scoreCount = 0, listRows = 0, listUsers = 0;
         if (run.hasScores) {
             BulkInsert ins(m_db, "run_scores", {"run_id", "user_id", "item_id", "score"});
             for (std::size_t u = 0; u < data.userCount(); ++u) {
@@ -451,6 +455,7 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
                         continue;
                     ins.i64(1, runId).i64(2, static_cast<std::int64_t>(u)).i64(3, data.withheld.rows[r].item.value);
                     ins.real(4, run.scores[r]).run();
+                    ++scoreCount;
                 }
             }
             ins.finish();
@@ -459,6 +464,8 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
             BulkInsert ins(m_db, "run_lists", {"run_id", "user_id", "rank", "item_id", "score"});
             for (std::size_t u = 0; u < data.userCount(); ++u) {
                 const auto list = run.listOf(UserIndex(static_cast<std::uint32_t>(u)));
+                listRows += static_cast<std::int64_t>(list.size());
+                listUsers += list.empty() ? 0 : 1;
                 for (std::size_t j = 0; j < list.size(); ++j) {
                     ins.i64(1, runId).i64(2, static_cast<std::int64_t>(u)).i64(3, static_cast<std::int64_t>(j + 1));
                     ins.i64(4, list[j].item.value);
@@ -471,6 +478,7 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
             }
             ins.finish();
         }
+        recordRunCounts(m_db, runId, scoreCount, listRows, listUsers);
         tx.commit();
         return runId;
     } catch (const SqliteError& e) {

@@ -80,6 +80,14 @@ private slots:
                                    "'comparisons','fit_log','train_by_user')");
         QVERIFY(tables.step());
         QCOMPARE(tables.int64(0), qint64(6));
+        // Version 3 recorded the run's counts from its rows (2 scores, 3 list rows, 2 users).
+        Statement counts(ws->db(), "SELECT score_count, list_rows, list_users FROM runs WHERE name = 'old-run'");
+        QVERIFY(counts.step());
+        QCOMPARE(counts.int64(0), qint64(2));
+        QCOMPARE(counts.int64(1), qint64(3));
+        QCOMPARE(counts.int64(2), qint64(2));
+        QCOMPARE(summary->runs[0].scoreCount, qint64(2));
+        QCOMPARE(summary->runs[0].listRowCount, qint64(3));
 
         // The data survived and loads in the documented order.
         auto data = ws->loadDataset();
@@ -298,6 +306,20 @@ private slots:
         QCOMPARE(back->scores[4], fitted.scores[4]);
         QCOMPARE(back->listRows.size(), fitted.listRows.size());
         QCOMPARE(back->listRows[17].score, fitted.listRows[17].score);
+        // The counts recorded when each run was written equal counting its rows.
+        for (const char* name : {"from-files", "stored"}) {
+            Statement c(ws->db(), "SELECT r.score_count, r.list_rows, r.list_users,"
+                                  " (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id),"
+                                  " (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id),"
+                                  " (SELECT count(DISTINCT user_id) FROM run_lists l WHERE l.run_id = r.run_id)"
+                                  " FROM runs r WHERE r.name = ?");
+            c.bind(1, name);
+            QVERIFY(c.step());
+            QVERIFY(c.int64(0) > 0 && c.int64(1) > 0);
+            QCOMPARE(c.int64(0), c.int64(3));
+            QCOMPARE(c.int64(1), c.int64(4));
+            QCOMPARE(c.int64(2), c.int64(5));
+        }
         QVERIFY(!ws->storeRun(fitted, *data).ok()); // name taken
         QVERIFY(ws->deleteRun("stored").ok());
         QVERIFY(!ws->run("stored").ok());
