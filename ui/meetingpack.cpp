@@ -13,6 +13,7 @@
 #include <QFileInfo>
 #include <QPageLayout>
 #include <QPainter>
+#include <QPalette>
 #include <QPdfWriter>
 
 #include <algorithm>
@@ -231,6 +232,15 @@ public:
         // The chart's logical size keeps the same aspect ratio as its box on the page.
         const double logicalWidth = 900;
         view.resize(static_cast<int>(logicalWidth), static_cast<int>(logicalWidth * h / m_width));
+        // Printed pages are white: charts take light colours even when the desktop is dark.
+        QPalette paper = view.palette();
+        for (const auto group : {QPalette::Active, QPalette::Inactive, QPalette::Disabled}) {
+            paper.setColor(group, QPalette::Base, Qt::white);
+            paper.setColor(group, QPalette::Window, Qt::white);
+            paper.setColor(group, QPalette::WindowText, QColor(0x20, 0x20, 0x20));
+            paper.setColor(group, QPalette::Text, QColor(0x20, 0x20, 0x20));
+        }
+        view.setPalette(paper);
         ChartExporter::paint(view, m_painter, QRectF(0, m_y, m_width, h));
         m_y += h + 3 * m_mm;
     }

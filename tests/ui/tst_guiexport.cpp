@@ -26,6 +26,7 @@
 #include <QImage>
 #include <QItemSelectionModel>
 #include <QMenu>
+#include <QPalette>
 #include <QProcess>
 #include <QRegularExpression>
 #include <QSignalSpy>
@@ -183,6 +184,7 @@ private slots:
     void pngChoicesAreRemembered();
     void meetingPackIsMultiPage();
     void cancelledMeetingPackWritesNothing();
+    void meetingPackChartsStayLightOnADarkDesktop();
 };
 
 void TestGuiExport::initTestCase()
@@ -501,6 +503,45 @@ void TestGuiExport::cancelledMeetingPackWritesNothing()
     QVERIFY(finished.wait(300000));
     QCOMPARE(finished.front().at(1).toString(), QStringLiteral("Cancelled."));
     QVERIFY(!QFileInfo::exists(path));
+}
+
+void TestGuiExport::meetingPackChartsStayLightOnADarkDesktop()
+{
+    const QString pdftoppm = QStandardPaths::findExecutable(QStringLiteral("pdftoppm"));
+    if (pdftoppm.isEmpty())
+        QSKIP("poppler-utils' pdftoppm is not installed (scripts/install-deps.sh installs it)");
+    const QPalette light = QApplication::palette();
+    QPalette dark = light;
+    for (const auto role : {QPalette::Window, QPalette::Base, QPalette::Button})
+        dark.setColor(role, QColor(0x22, 0x22, 0x22));
+    for (const auto role : {QPalette::WindowText, QPalette::Text, QPalette::ButtonText})
+        dark.setColor(role, QColor(0xee, 0xee, 0xee));
+    QApplication::setPalette(dark);
+    const QString path = outDir(QStringLiteral("dark-desktop-pack.pdf"));
+    QSignalSpy finished(m_window.get(), &MainWindow::meetingPackFinished);
+    const bool started = m_window->writeMeetingPack(path);
+    const bool done = started && finished.wait(300000);
+    QApplication::setPalette(light);
+    QVERIFY(done);
+    QCOMPARE(finished.front().at(1).toString(), QString());
+
+    // Page 2 is mostly the error charts; rasterized by poppler it must be light paper.
+    const QString stem = outDir(QStringLiteral("dark-desktop-page"));
+    QProcess process;
+    process.start(pdftoppm, {QStringLiteral("-f"), QStringLiteral("2"), QStringLiteral("-l"), QStringLiteral("2"),
+                             QStringLiteral("-r"), QStringLiteral("30"), QStringLiteral("-png"),
+                             QStringLiteral("-singlefile"), path, stem});
+    QVERIFY(process.waitForFinished(60000));
+    QCOMPARE(process.exitCode(), 0);
+    const QImage page(stem + QStringLiteral(".png"));
+    QVERIFY(!page.isNull());
+    double lightness = 0.0;
+    int pixels = 0;
+    for (int y = 0; y < page.height(); ++y)
+        for (int x = 0; x < page.width(); ++x, ++pixels)
+            lightness += page.pixelColor(x, y).lightnessF();
+    // Dark charts cover over half the page and pull the mean far below this.
+    QVERIFY2(lightness / pixels > 0.85, qPrintable(QString::number(lightness / pixels)));
 }
 
 QTEST_MAIN(TestGuiExport)
