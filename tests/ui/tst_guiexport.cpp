@@ -26,6 +26,7 @@
 #include <QImage>
 #include <QItemSelectionModel>
 #include <QMenu>
+#include <QMenuBar>
 #include <QPalette>
 #include <QProcess>
 #include <QRegularExpression>
@@ -459,6 +460,19 @@ void TestGuiExport::pngChoicesAreRemembered()
     QCOMPARE(dialog.options().dpi, 200);
     // 1234 px at 200 dpi is 6.17 inches = 15.67 cm (1 inch = 2.54 cm).
     QVERIFY2(dialog.explanation().contains(QStringLiteral("15.7")), qPrintable(dialog.explanation()));
+
+    // Pictures to look at while developing (SLATEWISE_SHOT_DIR=/some/dir).
+    const QString shots = qEnvironmentVariable("SLATEWISE_SHOT_DIR");
+    if (!shots.isEmpty()) {
+        dialog.adjustSize();
+        QVERIFY(dialog.grab().save(QDir(shots).filePath(QStringLiteral("png-size-dialog.png"))));
+        for (QAction* menu : m_window->menuBar()->actions()) {
+            if (menu->menu() && menu->text().remove(QLatin1Char('&')) == QStringLiteral("Export")) {
+                menu->menu()->adjustSize();
+                QVERIFY(menu->menu()->grab().save(QDir(shots).filePath(QStringLiteral("export-menu.png"))));
+            }
+        }
+    }
 
     const QString folder = outDir(QStringLiteral("remembered"));
     QVERIFY(QDir().mkpath(folder));
