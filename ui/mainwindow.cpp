@@ -166,7 +166,7 @@ void MainWindow::buildMenus()
     pack->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_M));
     pack->setToolTip(tr("One PDF for the meeting: run summary, charts, comparison, worst-served users and three case "
                         "studies. Written to the last export folder."));
-    m_export->addAction(tr("Write the meeting pack tr("Meeting pack &as…")to…"), this, &MainWindow::meetingPackAs);
+    m_export->addAction(tr("Write the meeting pack &to…"), this, &MainWindow::meetingPackAs);
     m_export->addSeparator();
     m_export->addAction(tr("Save this screen's charts as &PNG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Png); });
     m_export->addAction(tr("Save this screen's charts as &SVG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Svg); });
