@@ -6,13 +6,12 @@
 #include "core/topnlist.h"
 
 #include <Eigen/Cholesky>
-#include <nlohmann/json.hpp>
-
 #include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <functional>
 #include <limits>
+#include <nlohmann/json.hpp>
 
 namespace slatewise::core {
 
@@ -20,9 +19,9 @@ namespace {
 
 /// Solves every row of one side given the other side's factors and biases.
 bool solveSide(std::uint32_t count, const std::vector<std::uint32_t>& offsets, const std::vector<std::uint32_t>& others,
-               const std::vector<float>& ratings, const AlsModel::Matrix& otherFactors, const Eigen::VectorXd& otherBias,
-               double mu, double lambda, AlsModel::Matrix& ownFactors, Eigen::VectorXd& ownBias, const Progress& progress,
-               std::string_view stage, double from, double to)
+    const std::vector<float>& ratings, const AlsModel::Matrix& otherFactors, const Eigen::VectorXd& otherBias,
+    double mu, double lambda, AlsModel::Matrix& ownFactors, Eigen::VectorXd& ownBias, const Progress& progress,
+    std::string_view stage, double from, double to)
 {
     const Eigen::Index rank = otherFactors.cols();
     const Eigen::Index k1 = rank + 1;
@@ -124,13 +123,13 @@ AlsModel AlsModel::initial(const TrainMatrix& train, const ModelSettings& settin
 bool AlsModel::itemStep(const TrainMatrix& train, const Progress& progress, double from, double to)
 {
     return solveSide(train.items, train.itemOffsets, train.itemUsers, train.itemRatings, userFactors, userBias,
-                     globalMean, lambda, itemFactors, itemBias, progress, "als: item step", from, to);
+        globalMean, lambda, itemFactors, itemBias, progress, "als: item step", from, to);
 }
 
 bool AlsModel::userStep(const TrainMatrix& train, const Progress& progress, double from, double to)
 {
     return solveSide(train.users, train.userOffsets, train.userItems, train.userRatings, itemFactors, itemBias,
-                     globalMean, lambda, userFactors, userBias, progress, "als: user step", from, to);
+        globalMean, lambda, userFactors, userBias, progress, "als: user step", from, to);
 }
 
 double AlsModel::trainRmse(const Dataset& data, const TrainMatrix& train, bool clip) const
@@ -142,8 +141,8 @@ double AlsModel::trainRmse(const Dataset& data, const TrainMatrix& train, bool c
             const auto items = train.itemsOf(static_cast<std::uint32_t>(u));
             const auto ratings = train.ratingsOf(static_cast<std::uint32_t>(u));
             for (std::size_t k = 0; k < items.size(); ++k) {
-                const double e =
-                    RunAssembly::clamp(data, clip, predict(static_cast<std::uint32_t>(u), items[k])) - ratings[k];
+                const double e
+                    = RunAssembly::clamp(data, clip, predict(static_cast<std::uint32_t>(u), items[k])) - ratings[k];
                 s += e * e;
             }
         }
@@ -156,7 +155,7 @@ double AlsModel::trainRmse(const Dataset& data, const TrainMatrix& train, bool c
 }
 
 Result<AlsModel> AlsModel::fit(const Dataset& data, const TrainMatrix& train, const ModelSettings& settings,
-                               const Progress& progress, const IterationCallback& onIteration)
+    const Progress& progress, const IterationCallback& onIteration)
 {
     AlsModel m = initial(train, settings);
     const int iterations = std::max(1, settings.iterations);
@@ -180,11 +179,11 @@ Result<AlsModel> AlsModel::fit(const Dataset& data, const TrainMatrix& train, co
     return m;
 }
 
-Result<RunData> AlsModel::toRun(const Dataset& data, const TrainMatrix& train, const ModelSettings& settings,
-                                const Progress& progress) const
+Result<RunData> AlsModel::toRun(
+    const Dataset& data, const TrainMatrix& train, const ModelSettings& settings, const Progress& progress) const
 {
     auto scores = RunAssembly::scoreWithheld(data, settings.clipToScale, progress, 0.8, 0.82,
-                                             [this](std::uint32_t u, std::uint32_t i) { return predict(u, i); });
+        [this](std::uint32_t u, std::uint32_t i) { return predict(u, i); });
     if (progress.cancelled())
         return RunAssembly::cancelled("fitting ALS");
 
@@ -209,27 +208,28 @@ Result<RunData> AlsModel::toRun(const Dataset& data, const TrainMatrix& train, c
     std::vector<std::vector<float>> scratch(workerCount());
     std::vector<std::vector<ListEntry>> lists(data.userCount());
     const float mu = static_cast<float>(globalMean);
-    const bool ok = RunAssembly::forEach(blocks, progress, "als: top-N lists", 0.82, 1.0, [&](std::size_t b, unsigned w) {
-        const std::uint32_t first = static_cast<std::uint32_t>(b) * kBlock;
-        const std::uint32_t count = std::min(kBlock, train.users - first);
-        FloatRows& s = buffers[w];
-        s.resize(count, train.items);
-        s.noalias() = users.middleRows(first, count) * itemsT;
-        TopNList top(n);
-        for (std::uint32_t r = 0; r < count; ++r) {
-            const std::uint32_t u = first + r;
-            float* row = s.row(r).data();
-            for (std::uint32_t i : train.itemsOf(u))
-                row[i] = -std::numeric_limits<float>::infinity();
-            offerBest(row, train.items, top, scratch[w]);
-            auto list = top.take();
-            // Drop seen items that only made it in because fewer unseen items exist than N.
-            std::erase_if(list, [](const ListEntry& e) { return std::isinf(e.score); });
-            for (auto& e : list)
-                e.score = static_cast<float>(RunAssembly::clamp(data, settings.clipToScale, e.score + mu));
-            lists[u] = std::move(list);
-        }
-    });
+    const bool ok
+        = RunAssembly::forEach(blocks, progress, "als: top-N lists", 0.82, 1.0, [&](std::size_t b, unsigned w) {
+              const std::uint32_t first = static_cast<std::uint32_t>(b) * kBlock;
+              const std::uint32_t count = std::min(kBlock, train.users - first);
+              FloatRows& s = buffers[w];
+              s.resize(count, train.items);
+              s.noalias() = users.middleRows(first, count) * itemsT;
+              TopNList top(n);
+              for (std::uint32_t r = 0; r < count; ++r) {
+                  const std::uint32_t u = first + r;
+                  float* row = s.row(r).data();
+                  for (std::uint32_t i : train.itemsOf(u))
+                      row[i] = -std::numeric_limits<float>::infinity();
+                  offerBest(row, train.items, top, scratch[w]);
+                  auto list = top.take();
+                  // Drop seen items that only made it in because fewer unseen items exist than N.
+                  std::erase_if(list, [](const ListEntry& e) { return std::isinf(e.score); });
+                  for (auto& e : list)
+                      e.score = static_cast<float>(RunAssembly::clamp(data, settings.clipToScale, e.score + mu));
+                  lists[u] = std::move(list);
+              }
+          });
     if (!ok)
         return RunAssembly::cancelled("fitting ALS");
     return RunAssembly::finish(data, std::move(scores), std::move(lists));

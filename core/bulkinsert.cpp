@@ -1,17 +1,18 @@
 // SPDX-License-Identifier: MIT
 #include "core/bulkinsert.h"
 
-#include <sqlite3.h>
-
 #include <algorithm>
+#include <sqlite3.h>
 
 namespace slatewise::core {
 
 BulkInsert::BulkInsert(const SqliteDb& db, std::string_view table, std::vector<std::string_view> columns,
-                       int rowsPerStatement, std::string_view verb)
-    : m_db(db.handle()), m_columns(static_cast<int>(columns.size())),
-      // SQLite allows 32,766 parameters per statement.
-      m_perStatement(std::clamp(rowsPerStatement, 1, 32766 / std::max<int>(1, static_cast<int>(columns.size()))))
+    int rowsPerStatement, std::string_view verb)
+    : m_db(db.handle())
+    , m_columns(static_cast<int>(columns.size()))
+    ,
+    // SQLite allows 32,766 parameters per statement.
+    m_perStatement(std::clamp(rowsPerStatement, 1, 32766 / std::max<int>(1, static_cast<int>(columns.size()))))
 {
     m_head = std::string(verb) + " INTO " + std::string(table) + "(";
     m_tuple = "(";

@@ -20,7 +20,7 @@ class BulkInsert {
 public:
     /// `verb` is "INSERT" or e.g. "INSERT OR REPLACE".
     BulkInsert(const SqliteDb& db, std::string_view table, std::vector<std::string_view> columns,
-               int rowsPerStatement = 64, std::string_view verb = "INSERT");
+        int rowsPerStatement = 64, std::string_view verb = "INSERT");
     ~BulkInsert();
     BulkInsert(const BulkInsert&) = delete;
     BulkInsert& operator=(const BulkInsert&) = delete;
@@ -46,13 +46,13 @@ private:
     void send(sqlite3_stmt* stmt, int rows);
 
     sqlite3* m_db;
-    std::string m_head;   ///< "INSERT INTO t(a,b) VALUES"
-    std::string m_tuple;  ///< "(?,?)"
+    std::string m_head; ///< "INSERT INTO t(a,b) VALUES"
+    std::string m_tuple; ///< "(?,?)"
     int m_columns;
     int m_perStatement;
     sqlite3_stmt* m_full = nullptr;
     std::vector<Value> m_values; ///< m_perStatement rows × m_columns
-    int m_rows = 0;               ///< complete rows buffered
+    int m_rows = 0; ///< complete rows buffered
 };
 
 } // namespace slatewise::core

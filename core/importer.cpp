@@ -3,19 +3,13 @@
 
 #include "core/bulkinsert.h"
 #include "core/csvreader.h"
-#include "core/runcounts.h"
 #include "core/idmap.h"
 #include "core/migrate.h"
+#include "core/runcounts.h"
 #include "core/schema.h"
 #include "core/sqlitedb.h"
 #include "core/timestamp.h"
 #include "core/workspace.h"
-
-#include <nlohmann/json.hpp>
-#include <sqlite3.h>
-
-#include <fcntl.h>
-#include <unistd.h>
 
 #include <algorithm>
 #include <atomic>
@@ -25,9 +19,13 @@
 #include <condition_variable>
 #include <cstdio>
 #include <deque>
+#include <fcntl.h>
 #include <filesystem>
 #include <mutex>
+#include <nlohmann/json.hpp>
+#include <sqlite3.h>
 #include <thread>
+#include <unistd.h>
 #include <unordered_map>
 
 namespace slatewise::core {
@@ -51,7 +49,7 @@ std::string_view toString(FileRole role)
 
 std::optional<RatingScale> parseScale(const std::string& text)
 {
-    double v[3] = {0, 0, 0};
+    double v[3] = { 0, 0, 0 };
     std::size_t start = 0;
     for (int i = 0; i < 3; ++i) {
         const std::size_t colon = i < 2 ? text.find(':', start) : text.size();
@@ -66,7 +64,7 @@ std::optional<RatingScale> parseScale(const std::string& text)
     }
     if (!(v[0] < v[1]) || v[2] < 0 || v[2] > v[1] - v[0])
         return std::nullopt;
-    return RatingScale{v[0], v[1], v[2], false};
+    return RatingScale { v[0], v[1], v[2], false };
 }
 
 namespace {
@@ -83,12 +81,13 @@ struct ColumnSpec {
 
 const std::vector<ColumnSpec>& columnsFor(FileRole role)
 {
-    static const std::vector<ColumnSpec> catalog{{"item_id", true}, {"title", true},  {"year", false},
-                                                 {"genres", false}, {"series", false}, {"series_part", false}};
-    static const std::vector<ColumnSpec> interactions{
-        {"user_id", true}, {"item_id", true}, {"rating", true}, {"timestamp", false}};
-    static const std::vector<ColumnSpec> scores{{"user_id", true}, {"item_id", true}, {"score", true}};
-    static const std::vector<ColumnSpec> lists{{"user_id", true}, {"rank", true}, {"item_id", true}, {"score", false}};
+    static const std::vector<ColumnSpec> catalog { { "item_id", true }, { "title", true }, { "year", false },
+        { "genres", false }, { "series", false }, { "series_part", false } };
+    static const std::vector<ColumnSpec> interactions { { "user_id", true }, { "item_id", true }, { "rating", true },
+        { "timestamp", false } };
+    static const std::vector<ColumnSpec> scores { { "user_id", true }, { "item_id", true }, { "score", true } };
+    static const std::vector<ColumnSpec> lists { { "user_id", true }, { "rank", true }, { "item_id", true },
+        { "score", false } };
     switch (role) {
     case FileRole::Catalog:
         return catalog;
@@ -126,7 +125,8 @@ std::string_view trimSpaces(std::string_view s)
 std::string normalizedHeader(std::string_view s)
 {
     std::string out(trimSpaces(s));
-    std::transform(out.begin(), out.end(), out.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+    std::transform(
+        out.begin(), out.end(), out.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
     return out;
 }
 
@@ -190,7 +190,7 @@ public:
             m_errors.push_back(std::move(e));
     }
     void add(const std::string& file, std::int64_t line, std::int64_t column, std::string value, std::string message,
-             std::string expected)
+        std::string expected)
     {
         Error e;
         e.kind = ErrorKind::InputData;
@@ -234,8 +234,8 @@ struct Layout {
 };
 
 /// Reads the header record; missing required columns are errors, unknown ones one note.
-std::optional<Layout> readHeader(CsvParser& parser, const CsvReader& reader, FileRole role, ErrorList& errors,
-                                 std::vector<Note>& notes)
+std::optional<Layout> readHeader(
+    CsvParser& parser, const CsvReader& reader, FileRole role, ErrorList& errors, std::vector<Note>& notes)
 {
     const auto step = parser.next();
     if (step == CsvParser::Step::Error) {
@@ -264,7 +264,7 @@ std::optional<Layout> readHeader(CsvParser& parser, const CsvReader& reader, Fil
                 known = true;
                 if (layout.at[s] >= 0) {
                     errors.add(reader.path(), parser.line(), static_cast<std::int64_t>(i + 1), name,
-                               "column appears twice in the header", "each column name once");
+                        "column appears twice in the header", "each column name once");
                     return std::nullopt;
                 }
                 layout.at[s] = static_cast<int>(i);
@@ -276,8 +276,9 @@ std::optional<Layout> readHeader(CsvParser& parser, const CsvReader& reader, Fil
     bool ok = true;
     for (std::size_t s = 0; s < specs.size(); ++s) {
         if (specs[s].required && layout.at[s] < 0) {
-            errors.add(reader.path(), parser.line(), 0, headerText, std::string("missing required column '") + specs[s].name + "'",
-                       "a header with the columns " + columnListText(role) + " in any order");
+            errors.add(reader.path(), parser.line(), 0, headerText,
+                std::string("missing required column '") + specs[s].name + "'",
+                "a header with the columns " + columnListText(role) + " in any order");
             ok = false;
         }
     }
@@ -287,7 +288,7 @@ std::optional<Layout> readHeader(CsvParser& parser, const CsvReader& reader, Fil
         std::string list;
         for (const auto& u : unknown)
             list += (list.empty() ? "" : ", ") + ("'" + u + "'");
-        notes.push_back(Note{reader.path(), "ignored column" + std::string(unknown.size() > 1 ? "s " : " ") + list});
+        notes.push_back(Note { reader.path(), "ignored column" + std::string(unknown.size() > 1 ? "s " : " ") + list });
     }
     return layout;
 }
@@ -303,7 +304,7 @@ struct Catalog {
 };
 
 bool checkId(std::string_view id, const std::string& file, std::int64_t line, std::int64_t column, const char* what,
-             ErrorList& errors)
+    ErrorList& errors)
 {
     if (id.empty()) {
         errors.add(file, line, column, {}, std::string(what) + " is empty", "an id of 1 to 256 bytes");
@@ -311,7 +312,7 @@ bool checkId(std::string_view id, const std::string& file, std::int64_t line, st
     }
     if (id.size() > 256) {
         errors.add(file, line, column, std::string(id), std::string(what) + " is longer than 256 bytes",
-                   "an id of 1 to 256 bytes");
+            "an id of 1 to 256 bytes");
         return false;
     }
     return true;
@@ -320,7 +321,11 @@ bool checkId(std::string_view id, const std::string& file, std::int64_t line, st
 /// Progress across all files of one operation: fraction of bytes read, rows in the stage text.
 class Meter {
 public:
-    Meter(const Progress& progress, std::uint64_t totalBytes) : m_progress(progress), m_total(std::max<std::uint64_t>(1, totalBytes)) {}
+    Meter(const Progress& progress, std::uint64_t totalBytes)
+        : m_progress(progress)
+        , m_total(std::max<std::uint64_t>(1, totalBytes))
+    {
+    }
     void startFile(const CsvReader& reader)
     {
         m_before += m_current;
@@ -334,7 +339,8 @@ public:
         m_rows = rows;
         const double seconds = std::chrono::duration<double>(Clock::now() - m_start).count();
         const auto rate = seconds > 0 ? static_cast<std::int64_t>(static_cast<double>(rows) / seconds) : 0;
-        const std::string stage = "reading " + m_name + ": " + std::to_string(rows) + " rows, " + std::to_string(rate) + " rows/s";
+        const std::string stage
+            = "reading " + m_name + ": " + std::to_string(rows) + " rows, " + std::to_string(rate) + " rows/s";
         m_progress(std::min(1.0, static_cast<double>(m_before + position) / static_cast<double>(m_total)), stage);
     }
     void stage(double fraction, const std::string& text) { m_progress(fraction, text); }
@@ -375,10 +381,12 @@ bool readCatalog(CsvReader& reader, Catalog& catalog, ErrorList& errors, std::ve
         const std::int64_t line = parser.line();
         if (f.size() != layout->fieldCount) {
             errors.add(reader.path(), line, static_cast<std::int64_t>(std::min(f.size(), layout->fieldCount) + 1), {},
-                       "row has " + std::to_string(f.size()) + " fields, the header has " + std::to_string(layout->fieldCount),
-                       std::to_string(layout->fieldCount) + " fields as in the header");
+                "row has " + std::to_string(f.size()) + " fields, the header has " + std::to_string(layout->fieldCount),
+                std::to_string(layout->fieldCount) + " fields as in the header");
         } else {
-            const auto field = [&](int spec) { return col(spec) >= 0 ? f[static_cast<std::size_t>(col(spec))] : std::string_view(); };
+            const auto field = [&](int spec) {
+                return col(spec) >= 0 ? f[static_cast<std::size_t>(col(spec))] : std::string_view();
+            };
             const auto column = [&](int spec) { return static_cast<std::int64_t>(col(spec) + 1); };
             const std::string_view id = field(0);
             bool ok = checkId(id, reader.path(), line, column(0), "item_id", errors);
@@ -387,8 +395,8 @@ bool readCatalog(CsvReader& reader, Catalog& catalog, ErrorList& errors, std::ve
                 const auto ins = catalog.ids.insert(id);
                 if (!ins.added) {
                     errors.add(reader.path(), line, column(0), std::string(id),
-                               "duplicate item_id, first on line " + std::to_string(firstLine[ins.index]),
-                               "each item_id once in the catalog");
+                        "duplicate item_id, first on line " + std::to_string(firstLine[ins.index]),
+                        "each item_id once in the catalog");
                     ok = false;
                 } else {
                     firstLine.push_back(line);
@@ -400,8 +408,8 @@ bool readCatalog(CsvReader& reader, Catalog& catalog, ErrorList& errors, std::ve
             if (const auto y = trimSpaces(field(2)); !y.empty()) {
                 const auto year = parseInteger(y);
                 if (!year || *year < 1 || *year > 9999) {
-                    errors.add(reader.path(), line, column(2), std::string(y), "year is not a whole number from 1 to 9999",
-                               "a year such as 1994, or an empty cell");
+                    errors.add(reader.path(), line, column(2), std::string(y),
+                        "year is not a whole number from 1 to 9999", "a year such as 1994, or an empty cell");
                     ok = false;
                 } else {
                     item.year = static_cast<std::int32_t>(*year);
@@ -426,8 +434,9 @@ bool readCatalog(CsvReader& reader, Catalog& catalog, ErrorList& errors, std::ve
                 const auto p = parseInteger(part);
                 if (!p || *p < 1 || *p > 1000000) {
                     errors.add(reader.path(), line, column(5), std::string(part),
-                               part.empty() ? "series_part is empty for an item in a series" : "series_part is not a positive whole number",
-                               "a positive whole number giving the order within the series (1 = first)");
+                        part.empty() ? "series_part is empty for an item in a series"
+                                     : "series_part is not a positive whole number",
+                        "a positive whole number giving the order within the series (1 = first)");
                     ok = false;
                 } else {
                     item.series = static_cast<std::int32_t>(catalog.series.insert(series).index);
@@ -435,7 +444,7 @@ bool readCatalog(CsvReader& reader, Catalog& catalog, ErrorList& errors, std::ve
                 }
             } else if (!part.empty()) {
                 errors.add(reader.path(), line, column(5), std::string(part), "series_part given without a series",
-                           "an empty series_part when series is empty");
+                    "an empty series_part when series is empty");
                 ok = false;
             }
             if (ok)
@@ -554,8 +563,8 @@ bool readInteractions(CsvReader& reader, FileRole role, InteractionContext& ctx,
         ++rows;
         if (f.size() != layout->fieldCount) {
             ctx.errors.add(file, line, static_cast<std::int64_t>(std::min(f.size(), layout->fieldCount) + 1), {},
-                           "row has " + std::to_string(f.size()) + " fields, the header has " + std::to_string(layout->fieldCount),
-                           std::to_string(layout->fieldCount) + " fields as in the header");
+                "row has " + std::to_string(f.size()) + " fields, the header has " + std::to_string(layout->fieldCount),
+                std::to_string(layout->fieldCount) + " fields as in the header");
         } else {
             bool ok = checkId(f[cUser], file, line, static_cast<std::int64_t>(cUser + 1), "user_id", ctx.errors);
             ok = checkId(f[cItem], file, line, static_cast<std::int64_t>(cItem + 1), "item_id", ctx.errors) && ok;
@@ -570,8 +579,8 @@ bool readInteractions(CsvReader& reader, FileRole role, InteractionContext& ctx,
                         ctx.catalog.items.push_back(std::move(added));
                         ++ctx.unknownItemRows;
                     } else {
-                        ctx.errors.add(file, line, static_cast<std::int64_t>(cItem + 1), std::string(f[cItem]), "unknown item id",
-                                       "an item_id listed in the catalog (or --allow-unknown-items)");
+                        ctx.errors.add(file, line, static_cast<std::int64_t>(cItem + 1), std::string(f[cItem]),
+                            "unknown item id", "an item_id listed in the catalog (or --allow-unknown-items)");
                         ok = false;
                     }
                 } else if (item >= ctx.catalogSize) {
@@ -581,15 +590,15 @@ bool readInteractions(CsvReader& reader, FileRole role, InteractionContext& ctx,
             const auto rating = parseNumber(f[cRating]);
             if (!rating) {
                 ctx.errors.add(file, line, static_cast<std::int64_t>(cRating + 1), std::string(f[cRating]),
-                               f[cRating].empty() ? "rating is empty" : "rating is not a number", expectedRating);
+                    f[cRating].empty() ? "rating is empty" : "rating is not a number", expectedRating);
                 ok = false;
             } else if (!std::isfinite(*rating)) {
                 ctx.errors.add(file, line, static_cast<std::int64_t>(cRating + 1), std::string(f[cRating]),
-                               "rating is not a finite number", expectedRating);
+                    "rating is not a finite number", expectedRating);
                 ok = false;
             } else if (ctx.scale && !onScale(*rating, *ctx.scale)) {
                 ctx.errors.add(file, line, static_cast<std::int64_t>(cRating + 1), std::string(f[cRating]),
-                               "rating is outside the scale", expectedRating);
+                    "rating is outside the scale", expectedRating);
                 ok = false;
             }
             Timestamp ts = kNoTimestamp;
@@ -599,7 +608,7 @@ bool readInteractions(CsvReader& reader, FileRole role, InteractionContext& ctx,
                     const auto parsed = parseTimestamp(text);
                     if (!parsed || *parsed == kNoTimestamp) {
                         ctx.errors.add(file, line, cTs + 1, std::string(text), "timestamp is malformed",
-                                       "Unix seconds or ISO 8601 such as 2026-03-04T20:15:00Z, or an empty cell");
+                            "Unix seconds or ISO 8601 such as 2026-03-04T20:15:00Z, or an empty cell");
                         ok = false;
                     } else {
                         ts = *parsed;
@@ -725,13 +734,19 @@ private:
     std::size_t m_mask = 0;
 };
 
-std::uint64_t pairKey(std::uint32_t user, std::uint32_t item) { return (std::uint64_t(user) << 32) | item; }
+std::uint64_t pairKey(std::uint32_t user, std::uint32_t item)
+{
+    return (std::uint64_t(user) << 32) | item;
+}
 
-std::string baseName(const std::string& path) { return std::filesystem::path(path).filename().string(); }
+std::string baseName(const std::string& path)
+{
+    return std::filesystem::path(path).filename().string();
+}
 
 void insertSourceFile(const SqliteDb& db, std::optional<std::int64_t> runId, FileRole role, CsvReader& reader)
 {
-    BulkInsert ins(db, "source_files", {"run_id", "role", "name", "size", "sha256"});
+    BulkInsert ins(db, "source_files", { "run_id", "role", "name", "size", "sha256" });
     if (runId)
         ins.i64(1, *runId);
     else
@@ -743,8 +758,8 @@ void insertSourceFile(const SqliteDb& db, std::optional<std::int64_t> runId, Fil
 
 void insertItems(const SqliteDb& db, const Catalog& catalog, std::uint32_t from)
 {
-    BulkInsert ins(db, "items", {"item_id", "external_id", "title", "year", "series_id", "series_part"});
-    BulkInsert genre(db, "item_genres", {"item_id", "genre_id"});
+    BulkInsert ins(db, "items", { "item_id", "external_id", "title", "year", "series_id", "series_part" });
+    BulkInsert genre(db, "item_genres", { "item_id", "genre_id" });
     for (std::uint32_t i = from; i < catalog.items.size(); ++i) {
         const Item& item = catalog.items[i];
         ins.i64(1, i).text(2, item.externalId).text(3, item.title);
@@ -766,9 +781,9 @@ void insertItems(const SqliteDb& db, const Catalog& catalog, std::uint32_t from)
 
 /// Rows (index, name) of `names` from `from` on, into table(idColumn, nameColumn).
 void insertNames(const SqliteDb& db, std::string_view table, std::string_view idColumn, std::string_view nameColumn,
-                 const IdMap& names, std::uint32_t from)
+    const IdMap& names, std::uint32_t from)
 {
-    BulkInsert ins(db, table, {idColumn, nameColumn});
+    BulkInsert ins(db, table, { idColumn, nameColumn });
     for (std::uint32_t i = from; i < names.size(); ++i)
         ins.i64(1, i).text(2, names.id(i)).run();
     ins.finish();
@@ -776,7 +791,7 @@ void insertNames(const SqliteDb& db, std::string_view table, std::string_view id
 
 void setMeta(const SqliteDb& db, const std::string& key, const std::string& value)
 {
-    BulkInsert ins(db, "meta", {"key", "value"}, 1, "INSERT OR REPLACE");
+    BulkInsert ins(db, "meta", { "key", "value" }, 1, "INSERT OR REPLACE");
     ins.text(1, key).text(2, value).run();
     ins.finish();
 }
@@ -795,18 +810,21 @@ bool syncFile(const std::string& path)
 
 std::string tempPathFor(const std::string& target)
 {
-    static std::atomic<int> counter{0};
+    static std::atomic<int> counter { 0 };
     const std::filesystem::path p(target);
     const auto dir = p.has_parent_path() ? p.parent_path() : std::filesystem::path(".");
-    return (dir / ("." + p.filename().string() + ".importing-" + std::to_string(::getpid()) + "-"
-                   + std::to_string(counter++)))
+    return (dir
+        / ("." + p.filename().string() + ".importing-" + std::to_string(::getpid()) + "-" + std::to_string(counter++)))
         .string();
 }
 
 /// Removes the temporary file unless release() was called.
 class TempFile {
 public:
-    explicit TempFile(std::string path) : m_path(std::move(path)) {}
+    explicit TempFile(std::string path)
+        : m_path(std::move(path))
+    {
+    }
     ~TempFile()
     {
         if (!m_path.empty()) {
@@ -856,7 +874,7 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
     auto catalogFile = CsvReader::open(request.catalogPath, request.options.delimiter);
     auto trainFile = CsvReader::open(request.trainPath, request.options.delimiter);
     auto withheldFile = CsvReader::open(request.withheldPath, request.options.delimiter);
-    for (auto* r : {&catalogFile, &trainFile, &withheldFile})
+    for (auto* r : { &catalogFile, &trainFile, &withheldFile })
         if (!r->ok())
             openErrors.push_back(r->error());
     if (!openErrors.empty())
@@ -876,8 +894,8 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
     }
     sortGenres(catalog);
 
-    InteractionContext ctx{catalog, IdMap(), errors, report.notes, request.options, request.scale, ScaleFacts(), 0,
-                           static_cast<std::uint32_t>(catalog.items.size())};
+    InteractionContext ctx { catalog, IdMap(), errors, report.notes, request.options, request.scale, ScaleFacts(), 0,
+        static_cast<std::uint32_t>(catalog.items.size()) };
     ctx.users.reserve(1024);
 
     // SQLite's allocation statistics take a global mutex on every malloc; we never read them.
@@ -919,15 +937,15 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
         batch.reserve(1 << 16);
         trainPairs.reserve(static_cast<std::size_t>(trainReader.size() / 24));
         const bool trainOk = readInteractions(trainReader, FileRole::Train, ctx, meter,
-                                              [&](std::uint32_t u, std::uint32_t i, float r, Timestamp ts, std::int64_t) {
-                                                  batch.push_back(TrainRow{ts, u, i, r});
-                                                  trainPairs.push_back(pairKey(u, i));
-                                                  if (batch.size() == (1u << 16)) {
-                                                      queue.push(std::move(batch));
-                                                      batch = {};
-                                                      batch.reserve(1 << 16);
-                                                  }
-                                              });
+            [&](std::uint32_t u, std::uint32_t i, float r, Timestamp ts, std::int64_t) {
+                batch.push_back(TrainRow { ts, u, i, r });
+                trainPairs.push_back(pairKey(u, i));
+                if (batch.size() == (1u << 16)) {
+                    queue.push(std::move(batch));
+                    batch = {};
+                    batch.reserve(1 << 16);
+                }
+            });
         trainRows = static_cast<std::int64_t>(trainPairs.size());
         if (!batch.empty() && trainOk)
             queue.push(std::move(batch));
@@ -937,9 +955,9 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
             return;
         }
         const bool heldOk = readInteractions(withheldReader, FileRole::Withheld, ctx, meter,
-                                             [&](std::uint32_t u, std::uint32_t i, float r, Timestamp ts, std::int64_t line) {
-                                                 withheld.push_back(WithheldRow{ts, line, u, i, r});
-                                             });
+            [&](std::uint32_t u, std::uint32_t i, float r, Timestamp ts, std::int64_t line) {
+                withheld.push_back(WithheldRow { ts, line, u, i, r });
+            });
         if (!heldOk) {
             readerCancelled = errors.empty();
             return;
@@ -956,7 +974,8 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
                 e.file = withheldReader.path();
                 e.line = withheld[r].line;
                 e.column = 1;
-                e.value = std::string(ctx.users.id(withheld[r].user)) + ", " + std::string(catalog.ids.id(withheld[r].item));
+                e.value = std::string(ctx.users.id(withheld[r].user)) + ", "
+                    + std::string(catalog.ids.id(withheld[r].item));
                 e.message = "duplicate (user_id, item_id) pair, first on line " + std::to_string(unique.back().line);
                 e.expected = "each (user_id, item_id) pair at most once in the withheld file";
                 duplicates.emplace_back(e.line, std::move(e));
@@ -991,24 +1010,26 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
                 for (std::size_t r = 0; r < withheld.size(); ++r)
                     if (leaked[r])
                         rows.push_back(r);
-                std::sort(rows.begin(), rows.end(), [&](std::size_t a, std::size_t b) { return withheld[a].line < withheld[b].line; });
+                std::sort(rows.begin(), rows.end(),
+                    [&](std::size_t a, std::size_t b) { return withheld[a].line < withheld[b].line; });
                 for (std::size_t r : rows)
                     errors.add(withheldReader.path(), withheld[r].line, 1,
-                               std::string(ctx.users.id(withheld[r].user)) + ", " + std::string(catalog.ids.id(withheld[r].item)),
-                               "withheld pair also in train (leakage)",
-                               "withheld pairs absent from the train file (or run without --strict)");
+                        std::string(ctx.users.id(withheld[r].user)) + ", "
+                            + std::string(catalog.ids.id(withheld[r].item)),
+                        "withheld pair also in train (leakage)",
+                        "withheld pairs absent from the train file (or run without --strict)");
             } else {
-                report.notes.push_back(Note{withheldReader.path(),
-                                            "warning: " + std::to_string(leakLines.size())
-                                                + " withheld (user_id, item_id) pair(s) also appear in train (leakage), first on line "
-                                                + std::to_string(leakLines.front()) + "; --strict makes this an error"});
+                report.notes.push_back(Note { withheldReader.path(),
+                    "warning: " + std::to_string(leakLines.size())
+                        + " withheld (user_id, item_id) pair(s) also appear in train (leakage), first on line "
+                        + std::to_string(leakLines.front()) + "; --strict makes this an error" });
             }
         }
     });
 
     std::string writeFailure;
     try {
-        BulkInsert ins(db, "train", {"user_id", "item_id", "rating", "ts"});
+        BulkInsert ins(db, "train", { "user_id", "item_id", "rating", "ts" });
         while (auto batch = queue.pop()) {
             if (!writeFailure.empty())
                 continue;
@@ -1040,7 +1061,7 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
     try {
         meter.stage(1.0, "writing withheld rows and the catalog");
         {
-            BulkInsert ins(db, "withheld", {"user_id", "item_id", "rating", "ts"});
+            BulkInsert ins(db, "withheld", { "user_id", "item_id", "rating", "ts" });
             for (const WithheldRow& row : withheld) {
                 ins.i64(1, row.user).i64(2, row.item).real(3, row.rating);
                 if (row.ts == kNoTimestamp)
@@ -1064,7 +1085,8 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
         setMeta(db, "scale_source", report.scale.inferred ? "inferred" : "given");
         setMeta(db, "created_at", utcNow());
         setMeta(db, "created_with", std::string("slatewise ") + SLATEWISE_VERSION);
-        nlohmann::json options{{"strict", request.options.strict}, {"allow_unknown_items", request.options.allowUnknownItems}};
+        nlohmann::json options { { "strict", request.options.strict },
+            { "allow_unknown_items", request.options.allowUnknownItems } };
         setMeta(db, "import_options", options.dump());
         if (progress.cancelled())
             return cancelledError();
@@ -1089,9 +1111,9 @@ Result<ImportReport> importWorkspace(const ImportRequest& request, const Progres
     const std::uint32_t catalogSize = ctx.catalogSize;
     report.unknownItemsAdded = static_cast<std::int64_t>(catalog.items.size() - catalogSize);
     if (report.unknownItemsAdded > 0)
-        report.notes.push_back(Note{request.trainPath, "warning: " + std::to_string(report.unknownItemsAdded)
-                                                           + " unknown item id(s) in " + std::to_string(ctx.unknownItemRows)
-                                                           + " row(s) were added to the catalog without title or genres"});
+        report.notes.push_back(Note { request.trainPath,
+            "warning: " + std::to_string(report.unknownItemsAdded) + " unknown item id(s) in "
+                + std::to_string(ctx.unknownItemRows) + " row(s) were added to the catalog without title or genres" });
     report.items = static_cast<std::int64_t>(catalog.items.size());
     report.users = ctx.users.size();
     report.genres = catalog.genres.size();
@@ -1132,7 +1154,7 @@ struct RunContext {
 
 template <typename OnRow>
 bool readRunFile(CsvReader& reader, FileRole role, RunContext& ctx, ErrorList& errors, std::vector<Note>& notes,
-                 Meter& meter, OnRow&& onRow)
+    Meter& meter, OnRow&& onRow)
 {
     CsvParser parser(reader.text(), reader.delimiter());
     meter.startFile(reader);
@@ -1161,8 +1183,8 @@ bool readRunFile(CsvReader& reader, FileRole role, RunContext& ctx, ErrorList& e
         ++rows;
         if (f.size() != layout->fieldCount) {
             errors.add(file, line, static_cast<std::int64_t>(std::min(f.size(), layout->fieldCount) + 1), {},
-                       "row has " + std::to_string(f.size()) + " fields, the header has " + std::to_string(layout->fieldCount),
-                       std::to_string(layout->fieldCount) + " fields as in the header");
+                "row has " + std::to_string(f.size()) + " fields, the header has " + std::to_string(layout->fieldCount),
+                std::to_string(layout->fieldCount) + " fields as in the header");
         } else {
             bool ok = checkId(f[cUser], file, line, static_cast<std::int64_t>(cUser + 1), "user_id", errors);
             ok = checkId(f[cItem], file, line, static_cast<std::int64_t>(cItem + 1), "item_id", errors) && ok;
@@ -1174,8 +1196,9 @@ bool readRunFile(CsvReader& reader, FileRole role, RunContext& ctx, ErrorList& e
                         item = ctx.catalog.ids.insert(f[cItem]).index;
                         ++ctx.unknownItemRows;
                     } else {
-                        errors.add(file, line, static_cast<std::int64_t>(cItem + 1), std::string(f[cItem]), "unknown item id",
-                                   "an item_id listed in the workspace's catalog (or --allow-unknown-items)");
+                        errors.add(file, line, static_cast<std::int64_t>(cItem + 1), std::string(f[cItem]),
+                            "unknown item id",
+                            "an item_id listed in the workspace's catalog (or --allow-unknown-items)");
                         ok = false;
                     }
                 } else if (item >= ctx.existingItems) {
@@ -1188,7 +1211,7 @@ bool readRunFile(CsvReader& reader, FileRole role, RunContext& ctx, ErrorList& e
                 const auto r = parseInteger(text);
                 if (!r || *r < 1) {
                     errors.add(file, line, cRank + 1, std::string(text), "rank is not a positive whole number",
-                               "a whole number from 1 (1 = top of the list)");
+                        "a whole number from 1 (1 = top of the list)");
                     ok = false;
                 } else {
                     rank = *r;
@@ -1200,12 +1223,13 @@ bool readRunFile(CsvReader& reader, FileRole role, RunContext& ctx, ErrorList& e
                 if (!(lists && trimSpaces(text).empty())) {
                     const auto s = parseNumber(text);
                     if (!s) {
-                        errors.add(file, line, cScore + 1, std::string(text), text.empty() ? "score is empty" : "score is not a number",
-                                   lists ? "a finite decimal number, or an empty cell" : "a finite decimal number");
+                        errors.add(file, line, cScore + 1, std::string(text),
+                            text.empty() ? "score is empty" : "score is not a number",
+                            lists ? "a finite decimal number, or an empty cell" : "a finite decimal number");
                         ok = false;
                     } else if (!std::isfinite(*s)) {
                         errors.add(file, line, cScore + 1, std::string(text), "score is NaN or infinite",
-                                   lists ? "a finite decimal number, or an empty cell" : "a finite decimal number");
+                            lists ? "a finite decimal number, or an empty cell" : "a finite decimal number");
                         ok = false;
                     } else {
                         score = static_cast<float>(*s);
@@ -1285,7 +1309,7 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
             existingRun = find.int64(0);
         if (existingRun && !request.replace) {
             Error e = usage("a run named '" + request.name + "' already exists in " + request.workspacePath,
-                            "a new run name, or --replace to replace the run");
+                "a new run name, or --replace to replace the run");
             e.value = request.name;
             return e;
         }
@@ -1305,7 +1329,8 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
         ctx.existingItems = ctx.catalog.ids.size();
         Statement held(ws.db(), "SELECT user_id, item_id FROM withheld ORDER BY user_id, item_id");
         while (held.step())
-            withheldKeys.push_back(pairKey(static_cast<std::uint32_t>(held.int64(0)), static_cast<std::uint32_t>(held.int64(1))));
+            withheldKeys.push_back(
+                pairKey(static_cast<std::uint32_t>(held.int64(0)), static_cast<std::uint32_t>(held.int64(1))));
     } catch (const SqliteError& e) {
         return workspaceError(request.workspacePath, e.what());
     }
@@ -1316,9 +1341,9 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
     std::vector<ListRow> lists;
     if (scoresReader) {
         const bool ok = readRunFile(*scoresReader, FileRole::Scores, ctx, errors, report.notes, meter,
-                                    [&](std::uint32_t u, std::uint32_t i, std::int64_t, float s, std::int64_t line) {
-                                        scores.push_back(ScoreRow{line, u, i, s});
-                                    });
+            [&](std::uint32_t u, std::uint32_t i, std::int64_t, float s, std::int64_t line) {
+                scores.push_back(ScoreRow { line, u, i, s });
+            });
         if (!ok && errors.empty())
             return cancelledError();
         if (ok) {
@@ -1332,11 +1357,14 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
                     e.file = scoresReader->path();
                     e.line = scores[r].line;
                     e.column = 1;
-                    e.value = std::string(ctx.users.id(scores[r].user)) + ", " + std::string(ctx.catalog.ids.id(scores[r].item));
+                    e.value = std::string(ctx.users.id(scores[r].user)) + ", "
+                        + std::string(ctx.catalog.ids.id(scores[r].item));
                     std::size_t first = r - 1;
-                    while (first > 0 && scores[first - 1].user == scores[r].user && scores[first - 1].item == scores[r].item)
+                    while (first > 0 && scores[first - 1].user == scores[r].user
+                        && scores[first - 1].item == scores[r].item)
                         --first;
-                    e.message = "duplicate (user_id, item_id) pair, first on line " + std::to_string(scores[first].line);
+                    e.message
+                        = "duplicate (user_id, item_id) pair, first on line " + std::to_string(scores[first].line);
                     e.expected = "each (user_id, item_id) pair at most once in the scores file";
                     dups.emplace_back(e.line, std::move(e));
                 }
@@ -1348,9 +1376,9 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
     }
     if (listsReader && errors.empty()) {
         const bool ok = readRunFile(*listsReader, FileRole::Lists, ctx, errors, report.notes, meter,
-                                    [&](std::uint32_t u, std::uint32_t i, std::int64_t rank, float s, std::int64_t line) {
-                                        lists.push_back(ListRow{line, rank, u, i, s});
-                                    });
+            [&](std::uint32_t u, std::uint32_t i, std::int64_t rank, float s, std::int64_t line) {
+                lists.push_back(ListRow { line, rank, u, i, s });
+            });
         if (!ok && errors.empty())
             return cancelledError();
         if (ok) {
@@ -1358,7 +1386,8 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
                 return a.user != b.user ? a.user < b.user : a.rank != b.rank ? a.rank < b.rank : a.line < b.line;
             });
             std::vector<std::pair<std::int64_t, Error>> problems;
-            const auto problem = [&](const ListRow& row, std::int64_t column, std::string value, std::string message, std::string expected) {
+            const auto problem = [&](const ListRow& row, std::int64_t column, std::string value, std::string message,
+                                     std::string expected) {
                 Error e;
                 e.file = listsReader->path();
                 e.line = row.line;
@@ -1378,15 +1407,15 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
                 for (std::size_t r = b; r < e; ++r) {
                     if (r > b && lists[r].rank == lists[r - 1].rank) {
                         problem(lists[r], 2, user + ", " + std::to_string(lists[r].rank),
-                                "duplicate (user_id, rank), first on line " + std::to_string(lists[r - 1].line),
-                                "each rank once per user");
+                            "duplicate (user_id, rank), first on line " + std::to_string(lists[r - 1].line),
+                            "each rank once per user");
                         continue;
                     }
                     if (lists[r].rank != expectedRank) {
                         problem(lists[r], 2, user + ", " + std::to_string(lists[r].rank),
-                                "ranks of this user skip " + std::to_string(expectedRank)
-                                    + (lists[r].rank - expectedRank > 1 ? " to " + std::to_string(lists[r].rank - 1) : ""),
-                                "ranks 1..n without gaps for each user");
+                            "ranks of this user skip " + std::to_string(expectedRank)
+                                + (lists[r].rank - expectedRank > 1 ? " to " + std::to_string(lists[r].rank - 1) : ""),
+                            "ranks 1..n without gaps for each user");
                     }
                     expectedRank = lists[r].rank + 1;
                 }
@@ -1399,8 +1428,8 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
                         const ListRow& first = lists[std::min(itemsOfUser[k].second, itemsOfUser[k - 1].second)];
                         const ListRow& again = lists[std::max(itemsOfUser[k].second, itemsOfUser[k - 1].second)];
                         problem(again, 3, user + ", " + std::string(ctx.catalog.ids.id(again.item)),
-                                "item appears twice in this user's list, first on line " + std::to_string(first.line),
-                                "each item at most once per list");
+                            "item appears twice in this user's list, first on line " + std::to_string(first.line),
+                            "each item at most once per list");
                     }
                 }
                 b = e;
@@ -1421,7 +1450,8 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
             ++report.scoresOutsideWithheld;
     report.scoreRows = static_cast<std::int64_t>(scores.size());
     if (scoresReader)
-        report.withheldWithoutScore = static_cast<std::int64_t>(withheldKeys.size()) - (report.scoreRows - report.scoresOutsideWithheld);
+        report.withheldWithoutScore
+            = static_cast<std::int64_t>(withheldKeys.size()) - (report.scoreRows - report.scoresOutsideWithheld);
     report.listRows = static_cast<std::int64_t>(lists.size());
     for (std::size_t r = 0; r < lists.size(); ++r)
         if (r == 0 || lists[r].user != lists[r - 1].user)
@@ -1439,16 +1469,18 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
         }
         insertNames(ws.db(), "users", "user_id", "external_id", ctx.users, ctx.existingUsers);
         {
-            BulkInsert ins(ws.db(), "items", {"item_id", "external_id", "title"});
+            BulkInsert ins(ws.db(), "items", { "item_id", "external_id", "title" });
             for (std::uint32_t i = ctx.existingItems; i < ctx.catalog.ids.size(); ++i)
                 ins.i64(1, i).text(2, ctx.catalog.ids.id(i)).text(3, "").run();
             ins.finish();
         }
-        nlohmann::json settings{{"scores", request.scoresPath.empty() ? nlohmann::json() : nlohmann::json(baseName(request.scoresPath))},
-                                {"lists", request.listsPath.empty() ? nlohmann::json() : nlohmann::json(baseName(request.listsPath))},
-                                {"allow_unknown_items", request.options.allowUnknownItems}};
+        nlohmann::json settings {
+            { "scores", request.scoresPath.empty() ? nlohmann::json() : nlohmann::json(baseName(request.scoresPath)) },
+            { "lists", request.listsPath.empty() ? nlohmann::json() : nlohmann::json(baseName(request.listsPath)) },
+            { "allow_unknown_items", request.options.allowUnknownItems }
+        };
         {
-            BulkInsert ins(ws.db(), "runs", {"name", "created_at", "settings", "kind"}, 1);
+            BulkInsert ins(ws.db(), "runs", { "name", "created_at", "settings", "kind" }, 1);
             ins.text(1, request.name).text(2, utcNow()).text(3, settings.dump()).text(4, "imported").run();
             ins.finish();
         }
@@ -1458,7 +1490,7 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
         if (listsReader)
             insertSourceFile(ws.db(), report.runId, FileRole::Lists, *listsReader);
         {
-            BulkInsert ins(ws.db(), "run_scores", {"run_id", "user_id", "item_id", "score"});
+            BulkInsert ins(ws.db(), "run_scores", { "run_id", "user_id", "item_id", "score" });
             std::size_t n = 0;
             for (const ScoreRow& s : scores) {
                 ins.i64(1, report.runId).i64(2, s.user).i64(3, s.item).real(4, s.score).run();
@@ -1468,7 +1500,7 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
             ins.finish();
         }
         {
-            BulkInsert ins(ws.db(), "run_lists", {"run_id", "user_id", "rank", "item_id", "score"});
+            BulkInsert ins(ws.db(), "run_lists", { "run_id", "user_id", "rank", "item_id", "score" });
             std::size_t n = 0;
             for (const ListRow& l : lists) {
                 ins.i64(1, report.runId).i64(2, l.user).i64(3, l.rank).i64(4, l.item);
@@ -1482,25 +1514,30 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
             }
             ins.finish();
         }
-        recordRunCounts(ws.db(), report.runId, static_cast<std::int64_t>(scores.size()), report.listRows,
-                        report.listUsers);
+        recordRunCounts(
+            ws.db(), report.runId, static_cast<std::int64_t>(scores.size()), report.listRows, report.listUsers);
         tx.commit();
     } catch (const SqliteError& e) {
         return workspaceError(request.workspacePath, std::string("cannot write run: ") + e.what());
     }
     if (report.usersAdded > 0)
-        report.notes.push_back(Note{{}, std::to_string(report.usersAdded)
-                                            + " user(s) appear only in this run's files; they were added to the workspace's users without train or withheld rows"});
+        report.notes.push_back(Note { {},
+            std::to_string(report.usersAdded)
+                + " user(s) appear only in this run's files; they were added to the workspace's users without train or "
+                  "withheld rows" });
     if (report.unknownItemsAdded > 0)
-        report.notes.push_back(Note{{}, "warning: " + std::to_string(report.unknownItemsAdded) + " unknown item id(s) in "
-                                            + std::to_string(ctx.unknownItemRows)
-                                            + " row(s) were added to the catalog without title or genres"});
+        report.notes.push_back(Note { {},
+            "warning: " + std::to_string(report.unknownItemsAdded) + " unknown item id(s) in "
+                + std::to_string(ctx.unknownItemRows) + " row(s) were added to the catalog without title or genres" });
     if (report.scoresOutsideWithheld > 0)
-        report.notes.push_back(Note{request.scoresPath, std::to_string(report.scoresOutsideWithheld)
-                                                            + " score(s) are for pairs outside the withheld set; they are stored but not used by accuracy measures"});
+        report.notes.push_back(Note { request.scoresPath,
+            std::to_string(report.scoresOutsideWithheld)
+                + " score(s) are for pairs outside the withheld set; they are stored but not used by accuracy "
+                  "measures" });
     if (report.withheldWithoutScore > 0)
-        report.notes.push_back(Note{request.scoresPath, std::to_string(report.withheldWithoutScore)
-                                                            + " withheld pair(s) have no score; accuracy measures count them as missing"});
+        report.notes.push_back(Note { request.scoresPath,
+            std::to_string(report.withheldWithoutScore)
+                + " withheld pair(s) have no score; accuracy measures count them as missing" });
     report.seconds = std::chrono::duration<double>(Clock::now() - started).count();
     return report;
 }
@@ -1508,7 +1545,8 @@ Result<AddRunReport> addRun(const AddRunRequest& request, const Progress& progre
 // ---------------------------------------------------------------------------------------
 // preview
 
-Result<FilePreview> previewFile(const std::string& path, std::size_t maxRows, std::optional<FileRole> role, char delimiter)
+Result<FilePreview> previewFile(
+    const std::string& path, std::size_t maxRows, std::optional<FileRole> role, char delimiter)
 {
     auto opened = CsvReader::open(path, delimiter);
     if (!opened)
@@ -1522,7 +1560,7 @@ Result<FilePreview> previewFile(const std::string& path, std::size_t maxRows, st
     CsvParser parser(reader.text(), reader.delimiter());
     const auto first = parser.next();
     if (first != CsvParser::Step::Record) {
-        Error e = first == CsvParser::Step::Error ? parser.error() : Error{};
+        Error e = first == CsvParser::Step::Error ? parser.error() : Error {};
         if (first == CsvParser::Step::End) {
             e.message = "file is empty";
             e.expected = "a header row followed by data rows";
@@ -1564,10 +1602,11 @@ Result<FilePreview> previewFile(const std::string& path, std::size_t maxRows, st
             std::string list;
             for (const auto& u : unknown)
                 list += (list.empty() ? "'" : ", '") + u + "'";
-            preview.notes.push_back(Note{path, "ignored column" + std::string(unknown.size() > 1 ? "s " : " ") + list});
+            preview.notes.push_back(
+                Note { path, "ignored column" + std::string(unknown.size() > 1 ? "s " : " ") + list });
         }
     } else {
-        preview.notes.push_back(Note{path, "cannot tell what this file holds from its header"});
+        preview.notes.push_back(Note { path, "cannot tell what this file holds from its header" });
     }
     while (preview.rows.size() < maxRows) {
         const auto step = parser.next();
@@ -1587,7 +1626,8 @@ Result<FilePreview> previewFile(const std::string& path, std::size_t maxRows, st
             e.file = path;
             e.line = parser.line();
             e.column = static_cast<std::int64_t>(std::min(row.size(), preview.header.size()) + 1);
-            e.message = "row has " + std::to_string(row.size()) + " fields, the header has " + std::to_string(preview.header.size());
+            e.message = "row has " + std::to_string(row.size()) + " fields, the header has "
+                + std::to_string(preview.header.size());
             e.expected = std::to_string(preview.header.size()) + " fields as in the header";
             preview.errors.push_back(std::move(e));
         }

@@ -28,12 +28,12 @@ public:
     /// as a fraction mapped into [from, to] under `stage`. Returns false when cancelled
     /// (the remaining indices are skipped).
     template <typename Fn>
-    static bool forEach(std::size_t n, const Progress& progress, std::string_view stage, double from, double to,
-                        Fn&& fn)
+    static bool forEach(
+        std::size_t n, const Progress& progress, std::string_view stage, double from, double to, Fn&& fn)
     {
         constexpr std::size_t kChunk = 64;
-        std::atomic<std::size_t> next{0};
-        std::atomic<bool> stop{false};
+        std::atomic<std::size_t> next { 0 };
+        std::atomic<bool> stop { false };
         parallelFor(workerCount(), [&](std::size_t, std::size_t, unsigned worker) {
             for (std::size_t taken = 0;; ++taken) {
                 if (progress.cancelled())
@@ -59,37 +59,41 @@ public:
     /// Scores every withheld pair with predict(user, item) (parallel over users), clipped
     /// into the scale when `clip`. Returns an empty vector when cancelled.
     template <typename Predict>
-    static std::vector<float> scoreWithheld(const Dataset& data, bool clip, const Progress& progress, double from, double to,
-                                            Predict&& predict)
+    static std::vector<float> scoreWithheld(
+        const Dataset& data, bool clip, const Progress& progress, double from, double to, Predict&& predict)
     {
         std::vector<float> scores(data.withheld.size(), 0.0f);
-        const bool ok = forEach(data.userCount(), progress, "scoring withheld pairs", from, to, [&](std::size_t u, unsigned) {
-            const std::uint32_t from = data.withheld.offsets[u], to = data.withheld.offsets[u + 1];
-            for (std::uint32_t r = from; r < to; ++r)
-                scores[r] = static_cast<float>(clamp(data, clip, predict(static_cast<std::uint32_t>(u),
-                                                                          data.withheld.rows[r].item.value)));
-        });
+        const bool ok
+            = forEach(data.userCount(), progress, "scoring withheld pairs", from, to, [&](std::size_t u, unsigned) {
+                  const std::uint32_t from = data.withheld.offsets[u], to = data.withheld.offsets[u + 1];
+                  for (std::uint32_t r = from; r < to; ++r)
+                      scores[r] = static_cast<float>(
+                          clamp(data, clip, predict(static_cast<std::uint32_t>(u), data.withheld.rows[r].item.value)));
+              });
         if (!ok)
             return {};
         return scores;
     }
 
     /// Root mean squared error of predict(user, item) over all withheld rows (NaN when none).
-    template <typename Predict>
-    static double withheldRmse(const Dataset& data, bool clip, Predict&& predict)
+    template <typename Predict> static double withheldRmse(const Dataset& data, bool clip, Predict&& predict)
     {
         const unsigned workers = workerCount();
         std::vector<double> sums(workers, 0.0);
-        parallelFor(data.userCount(), [&](std::size_t begin, std::size_t end, unsigned w) {
-            double s = 0.0;
-            for (std::size_t u = begin; u < end; ++u)
-                for (std::uint32_t r = data.withheld.offsets[u]; r < data.withheld.offsets[u + 1]; ++r) {
-                    const auto& row = data.withheld.rows[r];
-                    const double e = clamp(data, clip, predict(static_cast<std::uint32_t>(u), row.item.value)) - row.rating;
-                    s += e * e;
-                }
-            sums[w] = s;
-        }, workers);
+        parallelFor(
+            data.userCount(),
+            [&](std::size_t begin, std::size_t end, unsigned w) {
+                double s = 0.0;
+                for (std::size_t u = begin; u < end; ++u)
+                    for (std::uint32_t r = data.withheld.offsets[u]; r < data.withheld.offsets[u + 1]; ++r) {
+                        const auto& row = data.withheld.rows[r];
+                        const double e
+                            = clamp(data, clip, predict(static_cast<std::uint32_t>(u), row.item.value)) - row.rating;
+                        s += e * e;
+                    }
+                sums[w] = s;
+            },
+            workers);
         double total = 0.0;
         for (double s : sums)
             total += s;

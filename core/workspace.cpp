@@ -2,17 +2,15 @@
 #include "core/workspace.h"
 
 #include "core/bulkinsert.h"
-#include "core/runcounts.h"
-
 #include "core/migrate.h"
 #include "core/parallel.h"
+#include "core/runcounts.h"
 #include "core/schema.h"
-
-#include <sqlite3.h>
 
 #include <algorithm>
 #include <charconv>
 #include <filesystem>
+#include <sqlite3.h>
 #include <thread>
 
 namespace slatewise::core {
@@ -41,7 +39,8 @@ Error usageError(std::string message, std::string value = {})
 /// Raw statement for the bulk read and write loops.
 class Raw {
 public:
-    Raw(sqlite3* db, std::string_view sql) : m_db(db)
+    Raw(sqlite3* db, std::string_view sql)
+        : m_db(db)
     {
         if (sqlite3_prepare_v2(db, sql.data(), static_cast<int>(sql.size()), &m_stmt, nullptr) != SQLITE_OK)
             throw SqliteError(std::string("cannot prepare statement: ") + sqlite3_errmsg(db));
@@ -127,21 +126,22 @@ Result<Workspace> Workspace::open(const std::string& path, bool readOnly)
         try {
             version = storedSchemaVersion(db);
         } catch (const SqliteError& e) {
-            return workspaceError(path, std::string("not a Slatewise workspace: ") + e.what(), "an SQLite workspace file");
+            return workspaceError(
+                path, std::string("not a Slatewise workspace: ") + e.what(), "an SQLite workspace file");
         }
         if (version <= 0)
             return workspaceError(path, "not a Slatewise workspace (no schema version in its meta table)",
-                                  "a workspace created by 'slatewise import'");
+                "a workspace created by 'slatewise import'");
         if (version > kSchemaVersion)
             return workspaceError(path,
-                                  "workspace has schema version " + std::to_string(version)
-                                      + ", newer than this Slatewise understands (up to version "
-                                      + std::to_string(kSchemaVersion) + ")",
-                                  "a newer version of Slatewise to open it");
+                "workspace has schema version " + std::to_string(version)
+                    + ", newer than this Slatewise understands (up to version " + std::to_string(kSchemaVersion) + ")",
+                "a newer version of Slatewise to open it");
         if (version < kSchemaVersion) {
             if (readOnly)
-                return workspaceError(path, "workspace has schema version " + std::to_string(version)
-                                                + " and must be migrated; open it once without read-only mode");
+                return workspaceError(path,
+                    "workspace has schema version " + std::to_string(version)
+                        + " and must be migrated; open it once without read-only mode");
             Transaction tx(db);
             migrateSchema(db, version);
             tx.commit();
@@ -183,12 +183,13 @@ Result<std::vector<RunInfo>> Workspace::runs() const
         // Counts recorded when the run was stored; a run added by other means is counted here
         // (coalesce evaluates its second argument only when the first is NULL). Every user's
         // list has exactly one rank-1 entry, so counting rank 1 counts users with a list.
-        Statement q(m_db, "SELECT r.run_id, r.name, r.kind, r.created_at, p.name, r.method, r.settings,"
-                          " coalesce(r.score_count, (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id)),"
-                          " coalesce(r.list_rows, (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id)),"
-                          " coalesce(r.list_users,"
-                          "   (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id AND l.rank = 1))"
-                          " FROM runs r LEFT JOIN runs p ON p.run_id = r.parent_run_id ORDER BY r.run_id");
+        Statement q(m_db,
+            "SELECT r.run_id, r.name, r.kind, r.created_at, p.name, r.method, r.settings,"
+            " coalesce(r.score_count, (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id)),"
+            " coalesce(r.list_rows, (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id)),"
+            " coalesce(r.list_users,"
+            "   (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id AND l.rank = 1))"
+            " FROM runs r LEFT JOIN runs p ON p.run_id = r.parent_run_id ORDER BY r.run_id");
         while (q.step()) {
             RunInfo info;
             info.id = q.int64(0);
@@ -244,7 +245,8 @@ Result<Dataset> Workspace::loadDataset() const
             }
         }
         {
-            Statement q(m_db, "SELECT item_id, external_id, title, year, series_id, series_part FROM items ORDER BY item_id");
+            Statement q(
+                m_db, "SELECT item_id, external_id, title, year, series_id, series_part FROM items ORDER BY item_id");
             while (q.step()) {
                 dense(q.int64(0), data.items.size(), "item");
                 Item item;
@@ -282,32 +284,35 @@ Result<Dataset> Workspace::loadDataset() const
         const unsigned workers = maxRowid > 200000 ? workerCount() : 1;
         std::vector<Part> parts(workers);
         const std::int64_t span = maxRowid / workers + 1;
-        parallelFor(workers, [&](std::size_t begin, std::size_t end, unsigned) {
-            for (std::size_t w = begin; w < end; ++w) {
-                Part& part = parts[w];
-                try {
-                    // :memory: paths cannot be shared; fall back to this connection for them.
-                    SqliteDb own;
-                    sqlite3* handle = m_db.handle();
-                    if (workers > 1) {
-                        own = SqliteDb::open(m_path, false, true);
-                        handle = own.handle();
+        parallelFor(
+            workers,
+            [&](std::size_t begin, std::size_t end, unsigned) {
+                for (std::size_t w = begin; w < end; ++w) {
+                    Part& part = parts[w];
+                    try {
+                        // :memory: paths cannot be shared; fall back to this connection for them.
+                        SqliteDb own;
+                        sqlite3* handle = m_db.handle();
+                        if (workers > 1) {
+                            own = SqliteDb::open(m_path, false, true);
+                            handle = own.handle();
+                        }
+                        Raw q(handle, "SELECT user_id, item_id, rating, ts FROM train WHERE rowid >= ? AND rowid < ?");
+                        sqlite3_bind_int64(q.get(), 1, static_cast<std::int64_t>(w) * span);
+                        sqlite3_bind_int64(q.get(), 2, static_cast<std::int64_t>(w + 1) * span);
+                        part.rows.reserve(static_cast<std::size_t>(span));
+                        part.users.reserve(static_cast<std::size_t>(span));
+                        while (q.step()) {
+                            part.users.push_back(static_cast<std::uint32_t>(q.i64(0)));
+                            part.rows.push_back(Interaction { ItemIndex(static_cast<std::uint32_t>(q.i64(1))),
+                                static_cast<float>(q.real(2)), q.null(3) ? kNoTimestamp : q.i64(3) });
+                        }
+                    } catch (const SqliteError& e) {
+                        part.error = e.what();
                     }
-                    Raw q(handle, "SELECT user_id, item_id, rating, ts FROM train WHERE rowid >= ? AND rowid < ?");
-                    sqlite3_bind_int64(q.get(), 1, static_cast<std::int64_t>(w) * span);
-                    sqlite3_bind_int64(q.get(), 2, static_cast<std::int64_t>(w + 1) * span);
-                    part.rows.reserve(static_cast<std::size_t>(span));
-                    part.users.reserve(static_cast<std::size_t>(span));
-                    while (q.step()) {
-                        part.users.push_back(static_cast<std::uint32_t>(q.i64(0)));
-                        part.rows.push_back(Interaction{ItemIndex(static_cast<std::uint32_t>(q.i64(1))),
-                                                        static_cast<float>(q.real(2)), q.null(3) ? kNoTimestamp : q.i64(3)});
-                    }
-                } catch (const SqliteError& e) {
-                    part.error = e.what();
                 }
-            }
-        }, workers);
+            },
+            workers);
         for (const Part& part : parts)
             if (!part.error.empty())
                 throw SqliteError(part.error);
@@ -333,10 +338,11 @@ Result<Dataset> Workspace::loadDataset() const
         data.train.offsets = std::move(offsets);
         parallelFor(users, [&](std::size_t begin, std::size_t end, unsigned) {
             for (std::size_t u = begin; u < end; ++u)
-                std::sort(data.train.rows.begin() + data.train.offsets[u], data.train.rows.begin() + data.train.offsets[u + 1],
-                          [](const Interaction& a, const Interaction& b) {
-                              return a.timestamp != b.timestamp ? a.timestamp < b.timestamp : a.item < b.item;
-                          });
+                std::sort(data.train.rows.begin() + data.train.offsets[u],
+                    data.train.rows.begin() + data.train.offsets[u + 1],
+                    [](const Interaction& a, const Interaction& b) {
+                        return a.timestamp != b.timestamp ? a.timestamp < b.timestamp : a.item < b.item;
+                    });
         });
 
         // Withheld: the primary key order is (user, item) already.
@@ -348,8 +354,8 @@ Result<Dataset> Workspace::loadDataset() const
                 if (u >= users)
                     throw SqliteError("withheld row for an unknown user; the workspace is damaged");
                 ++data.withheld.offsets[u + 1];
-                data.withheld.rows.push_back(Interaction{ItemIndex(static_cast<std::uint32_t>(q.i64(1))),
-                                                         static_cast<float>(q.real(2)), q.null(3) ? kNoTimestamp : q.i64(3)});
+                data.withheld.rows.push_back(Interaction { ItemIndex(static_cast<std::uint32_t>(q.i64(1))),
+                    static_cast<float>(q.real(2)), q.null(3) ? kNoTimestamp : q.i64(3) });
             }
             for (std::size_t u = 0; u < users; ++u)
                 data.withheld.offsets[u + 1] += data.withheld.offsets[u];
@@ -374,7 +380,8 @@ Result<RunData> Workspace::loadRun(const std::string& name, const Dataset& data)
         out.hasLists = out.info.listRowCount > 0;
         if (out.hasScores) {
             out.scores.assign(data.withheld.size(), std::nanf(""));
-            Raw q(m_db.handle(), "SELECT user_id, item_id, score FROM run_scores WHERE run_id = ? ORDER BY user_id, item_id");
+            Raw q(m_db.handle(),
+                "SELECT user_id, item_id, score FROM run_scores WHERE run_id = ? ORDER BY user_id, item_id");
             sqlite3_bind_int64(q.get(), 1, runId);
             while (q.step()) {
                 const auto u = static_cast<std::uint32_t>(q.i64(0));
@@ -388,15 +395,16 @@ Result<RunData> Workspace::loadRun(const std::string& name, const Dataset& data)
         if (out.hasLists) {
             out.listOffsets.assign(users + 1, 0);
             out.listRows.reserve(static_cast<std::size_t>(out.info.listRowCount));
-            Raw q(m_db.handle(), "SELECT user_id, item_id, score FROM run_lists WHERE run_id = ? ORDER BY user_id, rank");
+            Raw q(
+                m_db.handle(), "SELECT user_id, item_id, score FROM run_lists WHERE run_id = ? ORDER BY user_id, rank");
             sqlite3_bind_int64(q.get(), 1, runId);
             while (q.step()) {
                 const auto u = static_cast<std::uint32_t>(q.i64(0));
                 if (u >= users)
                     continue;
                 ++out.listOffsets[u + 1];
-                out.listRows.push_back(ListEntry{ItemIndex(static_cast<std::uint32_t>(q.i64(1))),
-                                                 q.null(2) ? std::nanf("") : static_cast<float>(q.real(2))});
+                out.listRows.push_back(ListEntry { ItemIndex(static_cast<std::uint32_t>(q.i64(1))),
+                    q.null(2) ? std::nanf("") : static_cast<float>(q.real(2)) });
             }
             for (std::size_t u = 0; u < users; ++u)
                 out.listOffsets[u + 1] += out.listOffsets[u];
@@ -431,7 +439,8 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
                 return usageError("no parent run named '" + run.info.parentName + "'", run.info.parentName);
             parent = p.int64(0);
         }
-        Statement ins(m_db, "INSERT INTO runs(name, created_at, settings, kind, parent_run_id, method) VALUES(?,?,?,?,?,?)");
+        Statement ins(
+            m_db, "INSERT INTO runs(name, created_at, settings, kind, parent_run_id, method) VALUES(?,?,?,?,?,?)");
         ins.bind(1, run.info.name)
             .bind(2, run.info.createdAt.empty() ? utcNow() : run.info.createdAt)
             .bind(3, run.info.settingsJson.empty() ? std::string("{}") : run.info.settingsJson)
@@ -448,7 +457,7 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
         const std::int64_t runId = m_db.lastInsertId();
         std::int64_t scoreCount = 0, listRows = 0, listUsers = 0;
         if (run.hasScores) {
-            BulkInsert ins(m_db, "run_scores", {"run_id", "user_id", "item_id", "score"});
+            BulkInsert ins(m_db, "run_scores", { "run_id", "user_id", "item_id", "score" });
             for (std::size_t u = 0; u < data.userCount(); ++u) {
                 for (auto r = data.withheld.offsets[u]; r < data.withheld.offsets[u + 1]; ++r) {
                     if (std::isnan(run.scores[r]))
@@ -461,7 +470,7 @@ Result<std::int64_t> Workspace::storeRun(const RunData& run, const Dataset& data
             ins.finish();
         }
         if (run.hasLists) {
-            BulkInsert ins(m_db, "run_lists", {"run_id", "user_id", "rank", "item_id", "score"});
+            BulkInsert ins(m_db, "run_lists", { "run_id", "user_id", "rank", "item_id", "score" });
             for (std::size_t u = 0; u < data.userCount(); ++u) {
                 const auto list = run.listOf(UserIndex(static_cast<std::uint32_t>(u)));
                 listRows += static_cast<std::int64_t>(list.size());
@@ -495,7 +504,7 @@ Status Workspace::deleteRun(const std::string& name)
         if (sqlite3_changes(m_db.handle()) == 0)
             return usageError("no run named '" + name + "' in " + m_path, name);
         tx.commit();
-        return Done{};
+        return Done {};
     } catch (const SqliteError& e) {
         return workspaceError(m_path, std::string("cannot delete run '") + name + "': " + e.what());
     }

@@ -10,7 +10,10 @@
 
 namespace slatewise::ui {
 
-UserBrowserProxy::UserBrowserProxy(QObject* parent) : QAbstractProxyModel(parent) {}
+UserBrowserProxy::UserBrowserProxy(QObject* parent)
+    : QAbstractProxyModel(parent)
+{
+}
 
 void UserBrowserProxy::setSourceModel(QAbstractItemModel* model)
 {
@@ -27,8 +30,8 @@ void UserBrowserProxy::setSourceModel(QAbstractItemModel* model)
             rebuildFromSource();
             endResetModel();
         });
-        for (auto signal : {&QAbstractItemModel::rowsInserted, &QAbstractItemModel::rowsRemoved,
-                            &QAbstractItemModel::columnsInserted, &QAbstractItemModel::columnsRemoved})
+        for (auto signal : { &QAbstractItemModel::rowsInserted, &QAbstractItemModel::rowsRemoved,
+                 &QAbstractItemModel::columnsInserted, &QAbstractItemModel::columnsRemoved })
             connect(model, signal, this, [this] {
                 beginResetModel();
                 rebuildFromSource();
@@ -36,13 +39,13 @@ void UserBrowserProxy::setSourceModel(QAbstractItemModel* model)
             });
         connect(model, &QAbstractItemModel::layoutChanged, this, [this] { applyLayout(orderedRows()); });
         connect(model, &QAbstractItemModel::dataChanged, this,
-                [this](const QModelIndex& topLeft, const QModelIndex& bottomRight, const QList<int>& roles) {
-                    if (m_rows.empty())
-                        return;
-                    // Rows may be scattered in the proxy; report the whole span of columns.
-                    emit dataChanged(index(0, topLeft.column()), index(static_cast<int>(m_rows.size()) - 1, bottomRight.column()),
-                                     roles);
-                });
+            [this](const QModelIndex& topLeft, const QModelIndex& bottomRight, const QList<int>& roles) {
+                if (m_rows.empty())
+                    return;
+                // Rows may be scattered in the proxy; report the whole span of columns.
+                emit dataChanged(index(0, topLeft.column()),
+                    index(static_cast<int>(m_rows.size()) - 1, bottomRight.column()), roles);
+            });
         connect(model, &QAbstractItemModel::headerDataChanged, this, &UserBrowserProxy::headerDataChanged);
     }
     rebuildFromSource();
@@ -122,7 +125,8 @@ QModelIndex UserBrowserProxy::mapToSource(const QModelIndex& proxyIndex) const
 
 QModelIndex UserBrowserProxy::mapFromSource(const QModelIndex& sourceIndex) const
 {
-    if (!sourceIndex.isValid() || sourceIndex.model() != sourceModel() || sourceIndex.row() >= static_cast<int>(m_inverse.size()))
+    if (!sourceIndex.isValid() || sourceIndex.model() != sourceModel()
+        || sourceIndex.row() >= static_cast<int>(m_inverse.size()))
         return {};
     const int row = m_inverse[static_cast<std::size_t>(sourceIndex.row())];
     return row < 0 ? QModelIndex() : index(row, sourceIndex.column());
@@ -160,7 +164,8 @@ bool UserBrowserProxy::accepts(int sourceRow) const
     case Segment::Activity2:
     case Segment::Activity3:
     case Segment::Activity4:
-        if (m_browser->activityQuartile(sourceRow) != static_cast<int>(m_segment) - static_cast<int>(Segment::Activity1) + 1)
+        if (m_browser->activityQuartile(sourceRow)
+            != static_cast<int>(m_segment) - static_cast<int>(Segment::Activity1) + 1)
             return false;
         break;
     }

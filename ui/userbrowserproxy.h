@@ -69,7 +69,7 @@ private:
     void refilter();
 
     UserBrowserModel* m_browser = nullptr;
-    std::vector<int> m_rows;    ///< proxy row → source row
+    std::vector<int> m_rows; ///< proxy row → source row
     std::vector<int> m_inverse; ///< source row → proxy row, -1 when filtered out
     int m_sortColumn = -1;
     Qt::SortOrder m_sortOrder = Qt::AscendingOrder;

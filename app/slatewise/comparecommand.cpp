@@ -4,18 +4,16 @@
 #include "app/slatewise/commands.h"
 #include "app/slatewise/evalsettingsargs.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/comparisonstore.h"
 #include "core/evaluationservice.h"
 #include "core/runcomparison.h"
 #include "core/workspace.h"
 
-#include <nlohmann/json.hpp>
-
 #include <cmath>
 #include <cstdio>
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 #include <sstream>
 
 namespace slatewise::cli {
@@ -36,9 +34,8 @@ std::string metricList()
 const CommandSpec& spec()
 {
     static const CommandSpec s = [] {
-        CommandSpec c{
-            "compare",
-            "WORKSPACE --base A --candidate B [--metric M]... [--segment activity|genre|warning:CODE]... "
+        CommandSpec c { "compare",
+            "WORKSPACE [--base A] --candidate B [--metric M]... [--segment activity|genre|warning:CODE]... "
             "[--json FILE] [--bootstrap B] [--k N] [--relevant-at X] [--worst N]",
             "Compares two runs user by user: for each metric, over the users both runs can be scored on,\n"
             "the mean difference (candidate - base) with a 95% bootstrap interval over users, the paired\n"
@@ -50,19 +47,23 @@ const CommandSpec& spec()
             "stored in the workspace for the GUI.",
             1,
             {
-                {"base", "A", "the run to compare against (required)"},
-                {"candidate", "B", "the run being judged (required; repeat to compare several against A)", true},
-                {"metric", "M", "per-user metric to compare (repeatable; default: ndcg, precision, recall, map, rmse, "
-                                "ild, novelty, as far as both runs define them). One of: " + metricList(), true},
-                {"segment", "S", "break down by activity, genre or warning:CODE (repeatable; default: activity)", true},
-                {"no-segments", "", "no segment breakdown"},
-                {"json", "FILE", "write the comparison as JSON to FILE ('-' for standard output)"},
-                {"per-user", "", "include the per-user values of every metric in the JSON"},
-                {"bootstrap", "B", "bootstrap resamples for the interval of the mean difference (default 2000)"},
-                {"seed", "S", "seed of the comparison's bootstrap (default 20261206)"},
-                {"worst", "N", "length of the who-got-worse list (default 10)"},
-                {"quiet", "", "no progress line"},
-            }};
+                { "base", "A", "the run to compare against (default: the parent of a re-ranked candidate)" },
+                { "candidate", "B", "the run being judged (required; repeat to compare several against A)", true },
+                { "metric", "M",
+                    "per-user metric to compare (repeatable; default: ndcg, precision, recall, map, rmse, "
+                    "ild, novelty, as far as both runs define them). One of: "
+                        + metricList(),
+                    true },
+                { "segment", "S", "break down by activity, genre or warning:CODE (repeatable; default: activity)",
+                    true },
+                { "no-segments", "", "no segment breakdown" },
+                { "json", "FILE", "write the comparison as JSON to FILE ('-' for standard output)" },
+                { "per-user", "", "include the per-user values of every metric in the JSON" },
+                { "bootstrap", "B", "bootstrap resamples for the interval of the mean difference (default 2000)" },
+                { "seed", "S", "seed of the comparison's bootstrap (default 20261206)" },
+                { "worst", "N", "length of the who-got-worse list (default 10)" },
+                { "quiet", "", "no progress line" },
+            } };
         // Evaluation settings, except the evaluation's own bootstrap and seed: here those two
         // options belong to the comparison.
         for (auto& o : evalSettingsOptions())
@@ -127,8 +128,9 @@ std::string interval(const core::Interval& ci)
 void printMetricHeader(std::ostream& out)
 {
     out << "  " << pad("metric", 14) << pad("n", 7, true) << pad("base", 10, true) << pad("candidate", 11, true)
-        << pad("diff", 10, true) << "  " << pad("95% interval", 21) << pad("p (t)", 9, true) << pad("p (Wilc.)", 10, true)
-        << pad("p_holm", 9, true) << pad("wins/ties/losses", 19, true) << pad("effect", 8, true) << "  judgement\n";
+        << pad("diff", 10, true) << "  " << pad("95% interval", 21) << pad("p (t)", 9, true)
+        << pad("p (Wilc.)", 10, true) << pad("p_holm", 9, true) << pad("wins/ties/losses", 19, true)
+        << pad("effect", 8, true) << "  judgement\n";
 }
 
 void printMetricRow(std::ostream& out, const core::MetricComparison& m)
@@ -188,8 +190,8 @@ void printComparison(std::ostream& out, const core::RunComparison& c, const core
         if (c.whoGotWorse.empty()) {
             out << "  nobody: no user lost more than the tie tolerance.\n";
         } else {
-            out << "  " << pad("user", 16) << pad("base", 10, true) << pad("candidate", 11, true) << pad("loss", 10, true)
-                << "  " << pad("warnings in base", 30) << "warnings in candidate\n";
+            out << "  " << pad("user", 16) << pad("base", 10, true) << pad("candidate", 11, true)
+                << pad("loss", 10, true) << "  " << pad("warnings in base", 30) << "warnings in candidate\n";
             for (const auto& w : c.whoGotWorse)
                 out << "  " << pad(w.userId, 16) << pad(num(w.base), 10, true) << pad(num(w.candidate), 11, true)
                     << pad(num(w.loss), 10, true) << "  " << pad(joined(w.baseWarnings), 30)
@@ -235,8 +237,8 @@ int compareCommand(const std::vector<std::string>& argv)
     auto args = parseOrExit(spec(), argv, exitCode);
     if (!args)
         return exitCode;
-    if (!args->has("base") || !args->has("candidate"))
-        return usageFailure(spec().name, "--base and --candidate are required");
+    if (!args->has("candidate"))
+        return usageFailure(spec().name, "--candidate is required");
     std::string usage;
     auto eval = evalSettingsFromArgs(*args, usage);
     if (!eval)
@@ -264,11 +266,12 @@ int compareCommand(const std::vector<std::string>& argv)
     }
     if (!args->has("no-segments")) {
         const auto given = args->values("segment");
-        for (const auto& text : given.empty() ? std::vector<std::string>{"activity"} : given) {
+        for (const auto& text : given.empty() ? std::vector<std::string> { "activity" } : given) {
             auto segment = core::SegmentSpec::parse(text);
             if (!segment)
-                return usageFailure(spec().name, "--segment '" + text + "': " + segment.error().message + " (expected "
-                                                     + segment.error().expected + ")");
+                return usageFailure(spec().name,
+                    "--segment '" + text + "': " + segment.error().message + " (expected " + segment.error().expected
+                        + ")");
             settings.segments.push_back(*segment);
         }
     }
@@ -285,18 +288,30 @@ int compareCommand(const std::vector<std::string>& argv)
         return usageFailure(spec().name, usage.empty() ? "--worst must be from 0 to 1000000" : usage);
     settings.worst = static_cast<std::int32_t>(*worst);
 
-    const std::string baseName = args->value("base");
     const std::vector<std::string> candidates = args->values("candidate");
+    auto ws = core::Workspace::open(args->positionals()[0]);
+    if (!ws)
+        return printErrors(spec().name, ws.errors());
+    std::string baseName = args->value("base");
+    if (baseName.empty()) {
+        // A fitted or re-ranked run is judged against the run it came from by default, which
+        // shows what the what-if change bought and what it cost.
+        auto first = ws->run(candidates.front());
+        if (!first)
+            return printErrors(spec().name, first.errors());
+        if (first->parentName.empty())
+            return usageFailure(
+                spec().name, "--base is required: run '" + candidates.front() + "' was not derived from another run");
+        baseName = first->parentName;
+        std::fprintf(stderr, "base: '%s', the run '%s' was derived from (%s)\n", baseName.c_str(),
+            candidates.front().c_str(), first->method.c_str());
+    }
     for (const auto& c : candidates)
         if (c == baseName)
             return usageFailure(spec().name, "the candidate '" + c + "' is the base run; compare two different runs");
 
-    auto ws = core::Workspace::open(args->positionals()[0]);
-    if (!ws)
-        return printErrors(spec().name, ws.errors());
-
     CliProgress progress(args->has("quiet"));
-    std::vector<std::string> names{baseName};
+    std::vector<std::string> names { baseName };
     names.insert(names.end(), candidates.begin(), candidates.end());
     auto evaluated = core::evaluateRuns(ws.value(), names, *eval, progress.progress());
     if (!evaluated) {

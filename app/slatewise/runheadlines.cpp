@@ -3,7 +3,6 @@
 
 #include "app/slatewise/args.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/evaluationservice.h"
 #include "core/workspace.h"
 
@@ -19,7 +18,7 @@ void printHeadline(const core::RunEvaluation& e)
         std::printf("  RMSE %.4f  MAE %.4f", e.accuracy->rmse, e.accuracy->mae);
     if (e.ranking)
         std::printf("  precision@%d %.4f  recall %.4f  NDCG %.4f", e.settings.k, e.ranking->precision,
-                    e.ranking->recall, e.ranking->ndcg);
+            e.ranking->recall, e.ranking->ndcg);
     if (e.beyond)
         std::printf("  ild %.3f  coverage %.3f", e.beyond->ild, e.beyond->coverage);
     std::printf("\n");

@@ -11,7 +11,6 @@
 #include <QTest>
 
 #include <Eigen/Dense>
-
 #include <atomic>
 #include <cmath>
 #include <numeric>
@@ -25,17 +24,19 @@ namespace {
     do {                                                                                                               \
         const double a_ = (actual), e_ = (expected);                                                                   \
         QVERIFY2(std::abs(a_ - e_) <= (tol),                                                                           \
-                 qPrintable(QStringLiteral("%1 = %2, expected %3 (tolerance %4)")                                     \
-                                .arg(QLatin1String(#actual)).arg(a_, 0, 'g', 15).arg(e_, 0, 'g', 15).arg(tol)));       \
+            qPrintable(QStringLiteral("%1 = %2, expected %3 (tolerance %4)")                                           \
+                           .arg(QLatin1String(#actual))                                                                \
+                           .arg(a_, 0, 'g', 15)                                                                        \
+                           .arg(e_, 0, 'g', 15)                                                                        \
+                           .arg(tol)));                                                                                \
     } while (false)
 
 /// Builds a Dataset from (user, item, rating) triples; train rows get increasing timestamps.
 Dataset makeDataset(std::uint32_t users, std::uint32_t items, const std::vector<std::tuple<int, int, double>>& train,
-                    const std::vector<std::tuple<int, int, double>>& withheld, double scaleMin = -1e9,
-                    double scaleMax = 1e9)
+    const std::vector<std::tuple<int, int, double>>& withheld, double scaleMin = -1e9, double scaleMax = 1e9)
 {
     Dataset d;
-    d.scale = {scaleMin, scaleMax, 0.0, false};
+    d.scale = { scaleMin, scaleMax, 0.0, false };
     for (std::uint32_t u = 0; u < users; ++u)
         d.userIds.push_back("u" + std::to_string(u));
     for (std::uint32_t i = 0; i < items; ++i) {
@@ -49,12 +50,13 @@ Dataset makeDataset(std::uint32_t users, std::uint32_t items, const std::vector<
         std::vector<std::vector<Interaction>> perUser(users);
         Timestamp ts = 1000;
         for (const auto& [u, i, r] : rows)
-            perUser[static_cast<std::size_t>(u)].push_back({ItemIndex(static_cast<std::uint32_t>(i)), static_cast<float>(r), ts++});
+            perUser[static_cast<std::size_t>(u)].push_back(
+                { ItemIndex(static_cast<std::uint32_t>(i)), static_cast<float>(r), ts++ });
         t.offsets.push_back(0);
         for (auto& rowsOfUser : perUser) {
             if (byItem)
                 std::sort(rowsOfUser.begin(), rowsOfUser.end(),
-                          [](const Interaction& a, const Interaction& b) { return a.item < b.item; });
+                    [](const Interaction& a, const Interaction& b) { return a.item < b.item; });
             t.rows.insert(t.rows.end(), rowsOfUser.begin(), rowsOfUser.end());
             t.offsets.push_back(static_cast<std::uint32_t>(t.rows.size()));
         }
@@ -68,7 +70,7 @@ Dataset makeDataset(std::uint32_t users, std::uint32_t items, const std::vector<
 /// Ratings r_ui = 3 + b_u + b_i + p_u·q_i + ε, ε ~ N(0, σ²), no clipping: the lowest RMSE any
 /// model can reach on the withheld pairs is σ.
 Dataset lowRankData(double sigma, int rank, std::uint32_t users, std::uint32_t items, int trainPerUser,
-                    int withheldPerUser, std::uint64_t seed)
+    int withheldPerUser, std::uint64_t seed)
 {
     SeededRandom rng(seed, 0);
     Eigen::MatrixXd p(users, rank), q(items, rank);
@@ -88,7 +90,8 @@ Dataset lowRankData(double sigma, int rank, std::uint32_t users, std::uint32_t i
     for (std::uint32_t u = 0; u < users; ++u) {
         std::iota(order.begin(), order.end(), 0);
         for (int k = 0; k < trainPerUser + withheldPerUser; ++k) {
-            std::swap(order[static_cast<std::size_t>(k)], order[static_cast<std::size_t>(k) + rng.below(items - static_cast<std::uint32_t>(k))]);
+            std::swap(order[static_cast<std::size_t>(k)],
+                order[static_cast<std::size_t>(k) + rng.below(items - static_cast<std::uint32_t>(k))]);
             const int i = order[static_cast<std::size_t>(k)];
             const double r = 3.0 + bu[u] + bi[i] + p.row(u).dot(q.row(i)) + sigma * rng.normal();
             (k < trainPerUser ? train : withheld).emplace_back(static_cast<int>(u), i, r);
@@ -155,8 +158,8 @@ private slots:
         // Koren, KDD 2008, section 2.1: b* = argmin Σ(r − μ − b_u − b_i)² + λ_u Σb_u² + λ_i Σb_i².
         // Closed form: the normal equations (AᵀA + diag(λ)) b = Aᵀ(r − μ), A the 0/1 design
         // matrix of the ratings, solved here with Eigen's QR.
-        const std::vector<std::tuple<int, int, double>> train{{0, 0, 5}, {0, 1, 3}, {1, 0, 4}, {1, 2, 1},
-                                                              {2, 1, 2}, {2, 2, 2}, {2, 0, 5}};
+        const std::vector<std::tuple<int, int, double>> train { { 0, 0, 5 }, { 0, 1, 3 }, { 1, 0, 4 }, { 1, 2, 1 },
+            { 2, 1, 2 }, { 2, 2, 2 }, { 2, 0, 5 } };
         const Dataset d = makeDataset(3, 3, train, {});
         ModelSettings s;
         s.kind = ModelKind::Bias;
@@ -203,7 +206,7 @@ private slots:
         auto fit = AlsModel::fit(d, tm, s, {});
         QVERIFY(fit.ok());
         const AlsModel& m = fit.value();
-        for (std::uint32_t u : {0u, 17u, 59u}) {
+        for (std::uint32_t u : { 0u, 17u, 59u }) {
             const auto items = tm.itemsOf(u);
             const auto ratings = tm.ratingsOf(u);
             const auto n = static_cast<Eigen::Index>(items.size());
@@ -212,9 +215,11 @@ private slots:
             for (Eigen::Index k = 0; k < n; ++k) {
                 y.row(k).head(4) = m.itemFactors.row(items[static_cast<std::size_t>(k)]);
                 y(k, 4) = 1.0;
-                t[k] = ratings[static_cast<std::size_t>(k)] - m.globalMean - m.itemBias[items[static_cast<std::size_t>(k)]];
+                t[k] = ratings[static_cast<std::size_t>(k)] - m.globalMean
+                    - m.itemBias[items[static_cast<std::size_t>(k)]];
             }
-            const Eigen::MatrixXd normal = y.transpose() * y + 0.1 * static_cast<double>(n) * Eigen::MatrixXd::Identity(5, 5);
+            const Eigen::MatrixXd normal
+                = y.transpose() * y + 0.1 * static_cast<double>(n) * Eigen::MatrixXd::Identity(5, 5);
             const Eigen::VectorXd x = normal.colPivHouseholderQr().solve(y.transpose() * t);
             for (int f = 0; f < 4; ++f)
                 COMPARE_NEAR(m.userFactors(u, f), x[f], 1e-9);
@@ -328,11 +333,11 @@ private slots:
             TrainMatrix t2 = TrainMatrix::build(d);
             auto m = AlsModel::fit(d, t2, s, {});
             QVERIFY(m.ok());
-            for (std::uint32_t u : {0u, 99u, 199u}) {
+            for (std::uint32_t u : { 0u, 99u, 199u }) {
                 std::vector<std::pair<double, std::uint32_t>> all;
                 for (std::uint32_t i = 0; i < t2.items; ++i)
                     if (!t2.seen(u, i))
-                        all.push_back({-m->predict(u, i), i});
+                        all.push_back({ -m->predict(u, i), i });
                 std::sort(all.begin(), all.end());
                 const auto list = run.listOf(UserIndex(u));
                 for (std::size_t k = 0; k < 5; ++k)
@@ -370,7 +375,7 @@ private slots:
                 QVERIFY(!t.seen(u, list[k].item.value));
                 // Float products against double predictions: equal to well within 1e-4.
                 QVERIFY2(std::abs(m->predict(u, list[k].item.value) - all[k]) < 1e-4,
-                         qPrintable(QStringLiteral("user %1 rank %2").arg(u).arg(k + 1)));
+                    qPrintable(QStringLiteral("user %1 rank %2").arg(u).arg(k + 1)));
             }
         }
     }
@@ -378,10 +383,11 @@ private slots:
     void cancelStopsTheFit()
     {
         const Dataset d = lowRankData(0.5, 2, 100, 50, 10, 2, 5);
-        std::atomic<bool> cancel{true};
+        std::atomic<bool> cancel { true };
         Progress progress;
         progress.cancel = &cancel;
-        for (ModelKind k : {ModelKind::Popular, ModelKind::Mean, ModelKind::Bias, ModelKind::ItemKnn, ModelKind::Als}) {
+        for (ModelKind k :
+            { ModelKind::Popular, ModelKind::Mean, ModelKind::Bias, ModelKind::ItemKnn, ModelKind::Als }) {
             ModelSettings s;
             s.kind = k;
             auto fit = fitModel(d, s, progress);

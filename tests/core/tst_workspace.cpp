@@ -9,8 +9,6 @@
 #include "core/syntheticdata.h"
 #include "core/workspace.h"
 
-#include "support/testsupport.h"
-
 #include <QDir>
 #include <QFile>
 #include <QTemporaryDir>
@@ -19,6 +17,8 @@
 #include <algorithm>
 #include <cmath>
 #include <set>
+
+#include "support/testsupport.h"
 
 using namespace slatewise::core;
 using slatewise::test::fileBytes;
@@ -30,7 +30,8 @@ namespace {
 QString sha(const QString& path)
 {
     const QByteArray bytes = fileBytes(path);
-    return QString::fromStdString(Sha256::hex(std::string_view(bytes.constData(), static_cast<std::size_t>(bytes.size()))));
+    return QString::fromStdString(
+        Sha256::hex(std::string_view(bytes.constData(), static_cast<std::size_t>(bytes.size()))));
 }
 
 /// Builds a database from SQL text (the stored fixture), as an older Slatewise would have.
@@ -72,12 +73,14 @@ private slots:
         QVERIFY(!summary->scale.inferred);
         QCOMPARE(summary->runs.size(), std::size_t(1));
         QCOMPARE(summary->runs[0].name, std::string("old-run"));
-        QCOMPARE(static_cast<int>(summary->runs[0].kind), static_cast<int>(RunKind::Imported)); // the column version 2 added, with its default
+        QCOMPARE(static_cast<int>(summary->runs[0].kind),
+            static_cast<int>(RunKind::Imported)); // the column version 2 added, with its default
         QCOMPARE(summary->runs[0].listUserCount, qint64(2));
 
         // Version 2's tables and index exist.
-        Statement tables(ws->db(), "SELECT count(*) FROM sqlite_master WHERE name IN ('evaluations','user_results','user_warnings',"
-                                   "'comparisons','fit_log','train_by_user')");
+        Statement tables(ws->db(),
+            "SELECT count(*) FROM sqlite_master WHERE name IN ('evaluations','user_results','user_warnings',"
+            "'comparisons','fit_log','train_by_user')");
         QVERIFY(tables.step());
         QCOMPARE(tables.int64(0), qint64(6));
         // Version 3 recorded the run's counts from its rows (2 scores, 3 list rows, 2 users).
@@ -92,11 +95,11 @@ private slots:
         // The data survived and loads in the documented order.
         auto data = ws->loadDataset();
         QVERIFY(data.ok());
-        QCOMPARE(data->userIds, (std::vector<std::string>{"member-7", "member-9"}));
+        QCOMPARE(data->userIds, (std::vector<std::string> { "member-7", "member-9" }));
         QCOMPARE(data->items[1].title, std::string("Harbour Lights Again"));
         QCOMPARE(data->items[1].series, 0);
         QCOMPARE(data->items[1].seriesPart, 2);
-        QCOMPARE(data->items[0].genres, (std::vector<std::int32_t>{0, 2}));
+        QCOMPARE(data->items[0].genres, (std::vector<std::int32_t> { 0, 2 }));
         QCOMPARE(data->items[2].series, kNone);
         // member-7's train rows sorted by timestamp: f1 (1735689600) before f3 (1735732800).
         const auto train = data->train.of(UserIndex(0));
@@ -107,7 +110,7 @@ private slots:
         auto run = ws->loadRun("old-run", *data);
         QVERIFY(run.ok());
         QVERIFY(run->hasScores && run->hasLists);
-        QCOMPARE(run->scores, (std::vector<float>{4.5f, 3.5f}));
+        QCOMPARE(run->scores, (std::vector<float> { 4.5f, 3.5f }));
         QCOMPARE(run->listOf(UserIndex(0)).size(), std::size_t(2));
         QCOMPARE(run->listOf(UserIndex(0))[1].item, ItemIndex(2));
         QCOMPARE(run->listOf(UserIndex(1)).size(), std::size_t(1));
@@ -121,17 +124,21 @@ private slots:
     void refusesNewerVersion()
     {
         const QString file = m_tmp.filePath(QStringLiteral("future.sqlite"));
-        buildFromSql(file, fileBytes(testDataPath(QStringLiteral("workspace-v1.sql")))
-                               + "\nUPDATE meta SET value = '99' WHERE key = 'schema_version';");
+        buildFromSql(file,
+            fileBytes(testDataPath(QStringLiteral("workspace-v1.sql")))
+                + "\nUPDATE meta SET value = '99' WHERE key = 'schema_version';");
         const QString before = sha(file);
         auto ws = Workspace::open(file.toStdString());
         QVERIFY(!ws.ok());
         QCOMPARE(static_cast<int>(ws.error().kind), static_cast<int>(ErrorKind::Workspace));
         QCOMPARE(QString::fromStdString(ws.error().toString()),
-                 file + QStringLiteral(": workspace has schema version 99, newer than this Slatewise understands (up to version ")
-                     + QString::number(kSchemaVersion) + QStringLiteral(") (expected a newer version of Slatewise to open it)"));
+            file
+                + QStringLiteral(
+                    ": workspace has schema version 99, newer than this Slatewise understands (up to version ")
+                + QString::number(kSchemaVersion)
+                + QStringLiteral(") (expected a newer version of Slatewise to open it)"));
         QCOMPARE(sha(file), before);
-        const auto cli = slatewise::test::runCli({QStringLiteral("info"), file});
+        const auto cli = slatewise::test::runCli({ QStringLiteral("info"), file });
         QCOMPARE(cli.exitCode, 3);
         QVERIFY(cli.err.contains(QStringLiteral("newer than this Slatewise understands")));
     }
@@ -164,19 +171,19 @@ private slots:
         auto data = ws->loadDataset();
         QVERIFY(data.ok());
         // Users in order of first appearance in train, then withheld.
-        QCOMPARE(data->userIds, (std::vector<std::string>{"ada", "bo", "cy", "dee"}));
+        QCOMPARE(data->userIds, (std::vector<std::string> { "ada", "bo", "cy", "dee" }));
         // Items in catalog order; genres in order of first appearance, ascending per item.
         QCOMPARE(data->items[2].externalId, std::string("m03"));
         QCOMPARE(data->genreNames[0], std::string("Drama"));
         QCOMPARE(data->items[5].title, std::string("Paper Kites, Iron Skies"));
         QCOMPARE(data->items[7].title, std::string("The \"Late\" Show at Fennick Hall"));
-        QCOMPARE(data->seriesNames, (std::vector<std::string>{"Tides", "Meridian"}));
+        QCOMPARE(data->seriesNames, (std::vector<std::string> { "Tides", "Meridian" }));
         QCOMPARE(data->items[4].seriesPart, 3);
         // ada: m01 (Jan 3), m02 (Jan 10), m03 (1736625600 = Jan 11 20:00Z), m07 (Jan 20 19:00Z).
         std::vector<std::string> ada;
         for (const auto& row : data->train.of(UserIndex(0)))
             ada.push_back(data->items[row.item.value].externalId);
-        QCOMPARE(ada, (std::vector<std::string>{"m01", "m02", "m03", "m07"}));
+        QCOMPARE(ada, (std::vector<std::string> { "m01", "m02", "m03", "m07" }));
         // bo's row without a timestamp sorts first.
         QCOMPARE(data->items[data->train.of(UserIndex(1))[0].item.value].externalId, std::string("m06"));
         QCOMPARE(data->train.size(), std::size_t(13));
@@ -195,9 +202,9 @@ private slots:
         const auto b = makeSynthetic(spec);
         QCOMPARE(a.data.train.size(), b.data.train.size());
         QVERIFY(std::equal(a.data.train.rows.begin(), a.data.train.rows.end(), b.data.train.rows.begin(),
-                           [](const Interaction& x, const Interaction& y) {
-                               return x.item == y.item && x.rating == y.rating && x.timestamp == y.timestamp;
-                           }));
+            [](const Interaction& x, const Interaction& y) {
+                return x.item == y.item && x.rating == y.rating && x.timestamp == y.timestamp;
+            }));
         QCOMPARE(a.run.scores, b.run.scores);
         spec.seed = 2;
         QVERIFY(makeSynthetic(spec).run.scores != a.run.scores);
@@ -307,12 +314,13 @@ private slots:
         QCOMPARE(back->listRows.size(), fitted.listRows.size());
         QCOMPARE(back->listRows[17].score, fitted.listRows[17].score);
         // The counts recorded when each run was written equal counting its rows.
-        for (const char* name : {"from-files", "stored"}) {
-            Statement c(ws->db(), "SELECT r.score_count, r.list_rows, r.list_users,"
-                                  " (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id),"
-                                  " (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id),"
-                                  " (SELECT count(DISTINCT user_id) FROM run_lists l WHERE l.run_id = r.run_id)"
-                                  " FROM runs r WHERE r.name = ?");
+        for (const char* name : { "from-files", "stored" }) {
+            Statement c(ws->db(),
+                "SELECT r.score_count, r.list_rows, r.list_users,"
+                " (SELECT count(*) FROM run_scores s WHERE s.run_id = r.run_id),"
+                " (SELECT count(*) FROM run_lists l WHERE l.run_id = r.run_id),"
+                " (SELECT count(DISTINCT user_id) FROM run_lists l WHERE l.run_id = r.run_id)"
+                " FROM runs r WHERE r.name = ?");
             c.bind(1, name);
             QVERIFY(c.step());
             QVERIFY(c.int64(0) > 0 && c.int64(1) > 0);

@@ -214,6 +214,13 @@ def main():
     row = db.execute("SELECT r.kind, p.name, r.method FROM runs r JOIN runs p ON p.run_id = r.parent_run_id "
                      "WHERE r.name='mmr03'").fetchone()
     check(row == ("reranked", "als", "mmr"), f"derived run records kind, parent and method {row}")
+    # compare without --base judges a derived run against its parent: the trade-off shows as
+    # ild up (the aim of mmr, Carbonell & Goldstein 1998) next to the ranking metrics.
+    cmp = json.loads(run(a.cli, "compare", ws, "--candidate", "mmr03", "--json", "-", "--quiet", "--bootstrap", "100",
+                         "--no-segments", "--metric", "ild", "--metric", "ndcg"))
+    check(cmp["base"] == "als", f"compare defaults the base to the candidate's parent ({cmp['base']})")
+    diffs = {m["metric"]: m["mean_diff"] for m in cmp["metrics"]}
+    check(diffs["ild"] > 0, f"compare shows the ild gained over the parent ({diffs['ild']:+.4f})")
 
     series = {}
     for i, s, part in db.execute("SELECT item_id, series_id, series_part FROM items WHERE series_id IS NOT NULL"):
