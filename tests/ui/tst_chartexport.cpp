@@ -26,6 +26,8 @@
 
 #include <memory>
 
+#include <qcustomplot.h>
+
 using namespace slatewise;
 using namespace slatewise::ui;
 
@@ -273,6 +275,52 @@ private slots:
         const QString path = dir.filePath(QStringLiteral("t.csv"));
         QVERIFY(CsvExporter::write(model, path).ok());
         QCOMPARE(test::fileBytes(path), csv.toUtf8());
+    }
+
+    void scoreAxesFollowTheRatingScale_data()
+    {
+        QTest::addColumn<double>("scaleMin");
+        QTest::addColumn<double>("scaleMax");
+        QTest::addColumn<double>("highestScore");
+        QTest::newRow("1-5 stars") << 1.0 << 5.0 << 4.6;
+        QTest::newRow("0-10 points") << 0.0 << 10.0 << 9.0;
+        QTest::newRow("score above the scale") << 1.0 << 5.0 << 5.8;
+    }
+    void scoreAxesFollowTheRatingScale()
+    {
+        QFETCH(double, scaleMin);
+        QFETCH(double, scaleMax);
+        QFETCH(double, highestScore);
+        ScoreRatingChart chart;
+        chart.setData({{scaleMin, scaleMin + 1.0, QStringLiteral("a")}, {scaleMax, highestScore, QStringLiteral("b")}},
+                      QStringLiteral("u1"), QStringLiteral("run"), scaleMin, scaleMax);
+        const auto rects = chart.plot()->axisRects();
+        QCOMPARE(rects.size(), 1);
+        const QCPRange x = rects.front()->axis(QCPAxis::atBottom)->range();
+        const QCPRange y = rects.front()->axis(QCPAxis::atLeft)->range();
+        // The whole scale shows, with a margin under a tenth of the scale's span on each side
+        // (it used to run 0-6 for a 1-5 scale).
+        const double span = scaleMax - scaleMin;
+        QVERIFY2(x.lower < scaleMin && x.lower > scaleMin - 0.1 * span, qPrintable(QString::number(x.lower)));
+        QVERIFY2(x.upper > scaleMax && x.upper < scaleMax + 0.1 * span, qPrintable(QString::number(x.upper)));
+        QVERIFY2(y.lower < scaleMin && y.lower > scaleMin - 0.1 * span, qPrintable(QString::number(y.lower)));
+        const double top = std::max(scaleMax, highestScore);
+        QVERIFY2(y.upper > top && y.upper < top + 0.1 * span, qPrintable(QString::number(y.upper)));
+    }
+
+    void fitLossIterationsAreWholeNumbers()
+    {
+        FitLossChart chart;
+        chart.setData({{1, 1.2, 1.25}, {2, 0.95, 1.05}, {3, 0.85, 1.0}}, QStringLiteral("als"));
+        const auto rects = chart.plot()->axisRects();
+        QCOMPARE(rects.size(), 1);
+        QCPAxis* x = rects.front()->axis(QCPAxis::atBottom);
+        auto ticker = qSharedPointerDynamicCast<QCPAxisTickerText>(x->ticker());
+        QVERIFY(ticker);
+        QCOMPARE(ticker->ticks().keys(), (QList<double>{1.0, 2.0, 3.0}));
+        // Half a step of room on both sides, so the first and last markers are whole.
+        QCOMPARE(x->range().lower, 0.5);
+        QCOMPARE(x->range().upper, 3.5);
     }
 
     void verdictSaysNotSignificantInWords()
