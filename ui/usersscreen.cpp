@@ -8,21 +8,33 @@
 #include "ui/workspacedocument.h"
 
 #include <QComboBox>
+#include <QFontMetrics>
 #include <QHBoxLayout>
 #include <QHeaderView>
 #include <QItemSelectionModel>
 #include <QKeyEvent>
 #include <QLabel>
 #include <QLineEdit>
+#include <QStyle>
 #include <QTableView>
 #include <QVBoxLayout>
+
+#include <algorithm>
 
 namespace slatewise::ui {
 
 UsersScreen::UsersScreen(WorkspaceDocument* document, QWidget* parent)
-    : QWidget(parent), m_document(document), m_model(new UserBrowserModel(this)), m_proxy(new UserBrowserProxy(this)),
-      m_run(new QComboBox(this)), m_sortBy(new QComboBox(this)), m_warning(new QComboBox(this)), m_segment(new QComboBox(this)),
-      m_text(new QLineEdit(this)), m_count(new QLabel(this)), m_table(new QTableView(this))
+    : QWidget(parent)
+    , m_document(document)
+    , m_model(new UserBrowserModel(this))
+    , m_proxy(new UserBrowserProxy(this))
+    , m_run(new QComboBox(this))
+    , m_sortBy(new QComboBox(this))
+    , m_warning(new QComboBox(this))
+    , m_segment(new QComboBox(this))
+    , m_text(new QLineEdit(this))
+    , m_count(new QLabel(this))
+    , m_table(new QTableView(this))
 {
     m_proxy->setSourceModel(m_model);
 
@@ -44,7 +56,8 @@ UsersScreen::UsersScreen(WorkspaceDocument* document, QWidget* parent)
     m_segment->addItem(tr("Second quarter"), static_cast<int>(UserBrowserProxy::Segment::Activity2));
     m_segment->addItem(tr("Third quarter"), static_cast<int>(UserBrowserProxy::Segment::Activity3));
     m_segment->addItem(tr("Most active quarter"), static_cast<int>(UserBrowserProxy::Segment::Activity4));
-    m_segment->setToolTip(tr("Activity = the number of train interactions (history); quarters split the evaluated users."));
+    m_segment->setToolTip(
+        tr("Activity = the number of train interactions (history); quarters split the evaluated users."));
     m_text->setPlaceholderText(tr("Find user id…"));
     m_text->setClearButtonEnabled(true);
 
@@ -74,6 +87,17 @@ UsersScreen::UsersScreen(WorkspaceDocument* document, QWidget* parent)
     m_table->verticalHeader()->setDefaultSectionSize(m_table->fontMetrics().height() + 6);
     m_table->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
     m_table->horizontalHeader()->setSortIndicatorShown(true);
+    {
+        // Every header readable in full, sort arrow included; the titles are fixed, so once.
+        QHeaderView* header = m_table->horizontalHeader();
+        const QFontMetrics metrics(header->font());
+        const int room = 2 * header->style()->pixelMetric(QStyle::PM_HeaderMargin, nullptr, header)
+            + header->style()->pixelMetric(QStyle::PM_HeaderMarkSize, nullptr, header) + 8;
+        for (int c = 0; c < m_model->columnCount(); ++c)
+            header->resizeSection(c,
+                std::max(header->defaultSectionSize(),
+                    metrics.horizontalAdvance(m_model->headerData(c, Qt::Horizontal).toString()) + room));
+    }
     m_table->horizontalHeader()->setToolTip(tr("Click a column to sort worst first; click again for best first."));
 
     auto* layout = new QVBoxLayout(this);
@@ -81,7 +105,8 @@ UsersScreen::UsersScreen(WorkspaceDocument* document, QWidget* parent)
     layout->addWidget(m_table, 1);
 
     connect(m_run, &QComboBox::currentIndexChanged, this, &UsersScreen::loadRun);
-    connect(m_sortBy, &QComboBox::currentIndexChanged, this, [this] { sortWorstFirst(m_sortBy->currentData().toInt()); });
+    connect(
+        m_sortBy, &QComboBox::currentIndexChanged, this, [this] { sortWorstFirst(m_sortBy->currentData().toInt()); });
     connect(m_warning, &QComboBox::currentIndexChanged, this, [this] {
         m_proxy->setWarningFilter(m_warning->currentData().toInt());
         updateCount();
