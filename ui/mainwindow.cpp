@@ -395,14 +395,28 @@ void MainWindow::fitDialog()
     dialog->open();
 }
 
+RerankDialog* MainWindow::createRerankDialog()
+{
+    auto* dialog = new RerankDialog(m_document->path(), m_document->runNames(), this);
+    dialog->setAttribute(Qt::WA_DeleteOnClose);
+    connect(dialog, &RerankDialog::reranked, this, [this](const QString& name, const QString& parent) {
+        // The point of a what-if run is its trade-off against the parent: show that comparison
+        // as soon as the reloaded workspace has both runs in memory.
+        QObject::disconnect(m_pendingCompare);
+        m_pendingCompare = connect(m_document, &WorkspaceDocument::datasetLoaded, this, [this, name, parent] {
+            QObject::disconnect(m_pendingCompare);
+            m_compare->compare(parent, name);
+        });
+        m_document->reload();
+    });
+    return dialog;
+}
+
 void MainWindow::rerankDialog()
 {
     if (!m_document->isOpen())
         return;
-    auto* dialog = new RerankDialog(m_document->path(), m_document->runNames(), this);
-    dialog->setAttribute(Qt::WA_DeleteOnClose);
-    connect(dialog, &RerankDialog::reranked, this, [this] { m_document->reload(); });
-    dialog->open();
+    createRerankDialog()->open();
 }
 
 void MainWindow::updateTitle()

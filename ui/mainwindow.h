@@ -19,6 +19,7 @@ namespace slatewise::ui {
 class CompareScreen;
 class InspectorScreen;
 class OverviewScreen;
+class RerankDialog;
 class UsersScreen;
 class WorkspaceDocument;
 
@@ -58,6 +59,10 @@ public:
     /// the status bar); false when no workspace is open or another job runs. The pack
     /// compares the Compare screen's runs when a comparison is shown, else the first two.
     bool writeMeetingPack(const QString& path);
+
+    /// The "Re-rank a run" dialog, wired but not shown: once it stores a run the workspace
+    /// reloads and the Compare screen compares the new run with its parent.
+    RerankDialog* createRerankDialog();
 
     bool openWorkspace(const QString& path);
     /// Opens `user` under `runName` in the inspector and shows it.
@@ -101,6 +106,7 @@ private:
     QAction* m_fit = nullptr;
     QAction* m_rerank = nullptr;
     QMenu* m_export = nullptr;
+    QMetaObject::Connection m_pendingCompare; ///< compare a new derived run once it is loaded
     QAction* m_close = nullptr;
     QLabel* m_statusText;
     QProgressBar* m_progress;

@@ -233,7 +233,7 @@ bool RerankDialog::startRerank()
                     .arg(name)
                     .arg(outcome->users)
                     .arg(parent));
-            emit reranked(name);
+            emit reranked(name, parent);
         });
 }
 

@@ -38,7 +38,8 @@ public:
     BackgroundTask* task() const { return m_task; }
 
 signals:
-    void reranked(const QString& runName);
+    /// The derived run `runName` of `parentRun` is stored.
+    void reranked(const QString& runName, const QString& parentRun);
 
 protected:
     void reject() override;

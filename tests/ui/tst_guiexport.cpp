@@ -4,15 +4,18 @@
 // one page per chart), each screen's tables as CSV (formula escaping, rows as shown), the
 // right-click menus, the remembered export choices and the one-click meeting pack (several
 // pages, written on the worker thread, cancel writes nothing).
+#include "core/comparisonresult.h"
 #include "core/evaluation.h"
 #include "ui/backgroundtask.h"
 #include "ui/chartview.h"
 #include "ui/comparescreen.h"
+#include "ui/comparisonmodel.h"
 #include "ui/exportcontextmenu.h"
 #include "ui/exportsettings.h"
 #include "ui/inspectorscreen.h"
 #include "ui/mainwindow.h"
 #include "ui/pngsizedialog.h"
+#include "ui/rerankdialog.h"
 #include "ui/screenexport.h"
 #include "ui/usersscreen.h"
 #include "ui/workspacedocument.h"
@@ -186,6 +189,7 @@ private slots:
     void meetingPackIsMultiPage();
     void cancelledMeetingPackWritesNothing();
     void meetingPackChartsStayLightOnADarkDesktop();
+    void rerankFromTheWindowIsComparedWithItsParent(); // last: it adds a run
 };
 
 void TestGuiExport::initTestCase()
@@ -526,9 +530,9 @@ void TestGuiExport::meetingPackChartsStayLightOnADarkDesktop()
         QSKIP("poppler-utils' pdftoppm is not installed (scripts/install-deps.sh installs it)");
     const QPalette light = QApplication::palette();
     QPalette dark = light;
-    for (const auto role : {QPalette::Window, QPalette::Base, QPalette::Button})
+    for (const auto role : { QPalette::Window, QPalette::Base, QPalette::Button })
         dark.setColor(role, QColor(0x22, 0x22, 0x22));
-    for (const auto role : {QPalette::WindowText, QPalette::Text, QPalette::ButtonText})
+    for (const auto role : { QPalette::WindowText, QPalette::Text, QPalette::ButtonText })
         dark.setColor(role, QColor(0xee, 0xee, 0xee));
     QApplication::setPalette(dark);
     const QString path = outDir(QStringLiteral("dark-desktop-pack.pdf"));
@@ -542,9 +546,9 @@ void TestGuiExport::meetingPackChartsStayLightOnADarkDesktop()
     // Page 2 is mostly the error charts; rasterized by poppler it must be light paper.
     const QString stem = outDir(QStringLiteral("dark-desktop-page"));
     QProcess process;
-    process.start(pdftoppm, {QStringLiteral("-f"), QStringLiteral("2"), QStringLiteral("-l"), QStringLiteral("2"),
-                             QStringLiteral("-r"), QStringLiteral("30"), QStringLiteral("-png"),
-                             QStringLiteral("-singlefile"), path, stem});
+    process.start(pdftoppm,
+        { QStringLiteral("-f"), QStringLiteral("2"), QStringLiteral("-l"), QStringLiteral("2"), QStringLiteral("-r"),
+            QStringLiteral("30"), QStringLiteral("-png"), QStringLiteral("-singlefile"), path, stem });
     QVERIFY(process.waitForFinished(60000));
     QCOMPARE(process.exitCode(), 0);
     const QImage page(stem + QStringLiteral(".png"));
@@ -556,6 +560,29 @@ void TestGuiExport::meetingPackChartsStayLightOnADarkDesktop()
             lightness += page.pixelColor(x, y).lightnessF();
     // Dark charts cover over half the page and pull the mean far below this.
     QVERIFY2(lightness / pixels > 0.85, qPrintable(QString::number(lightness / pixels)));
+}
+
+void TestGuiExport::rerankFromTheWindowIsComparedWithItsParent()
+{
+    auto* document = m_window->document();
+    const QString parent = document->runNames().front();
+    const int runsBefore = static_cast<int>(document->runNames().size());
+    RerankDialog* dialog = m_window->createRerankDialog();
+    dialog->setParentRun(parent);
+    dialog->setMethod(QStringLiteral("series-order"));
+    dialog->setRunName(QStringLiteral("window-series-order"));
+    QSignalSpy reranked(dialog, &RerankDialog::reranked);
+    QVERIFY(dialog->startRerank());
+    QVERIFY(reranked.wait(300000));
+    dialog->close();
+    // The window reloads the workspace, then compares the new run with its parent.
+    QVERIFY(waitFor([&] {
+        const auto shown = m_window->compare()->comparison();
+        return !document->task()->isRunning() && shown && shown->candidate == "window-series-order";
+    }));
+    QCOMPARE(static_cast<int>(document->runNames().size()), runsBefore + 1);
+    QCOMPARE(QString::fromStdString(m_window->compare()->comparison()->base), parent);
+    QVERIFY(m_window->compare()->comparisonModel()->rowCount() > 0);
 }
 
 QTEST_MAIN(TestGuiExport)
