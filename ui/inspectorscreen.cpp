@@ -100,7 +100,7 @@ InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
     lower->setStretchFactor(2, 2);
     lower->setStretchFactor(3, 3);
     // Wide enough for the metric table's three columns and the chart titles.
-    lower->setSizes({330, 420, 430, 420});
+    lower->setSizes({300, 500, 400, 400}); // the metrics table needs room for its verdict column
 
     auto* split = new QSplitter(Qt::Vertical, this);
     split->addWidget(lists);
