@@ -175,6 +175,7 @@ void MainWindow::buildMenus()
     m_export->addSeparator();
     QAction* hint = m_export->addAction(tr("Right-click a chart or table to save just that one"));
     hint->setEnabled(false);
+    hint->setData(QStringLiteral("hint")); // stays disabled: it only explains
 
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     help->addAction(tr("&About Slatewise"), this, [this] {
@@ -426,7 +427,7 @@ void MainWindow::updateTitle()
     m_fit->setEnabled(open);
     m_rerank->setEnabled(open);
     for (QAction* action : m_export->actions())
-        if (!action->isSeparator() && !action->text().startsWith(tr("Right-click")))
+        if (!action->isSeparator() && action->data().toString() != QLatin1String("hint"))
             action->setEnabled(open);
     m_close->setEnabled(open);
     if (!open) {
