@@ -5,12 +5,11 @@
 // Usage: bench_models [users] [items] [trainPerUser]
 #include "core/alsmodel.h"
 #include "core/biasmodel.h"
+#include "core/itemknnmodel.h"
 #include "core/modelsettings.h"
 #include "core/parallel.h"
 #include "core/seededrandom.h"
 #include "core/trainmatrix.h"
-
-#include <sys/resource.h>
 
 #include <algorithm>
 #include <chrono>
@@ -18,6 +17,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <string>
+#include <sys/resource.h>
 #include <vector>
 
 using namespace slatewise::core;
@@ -31,7 +31,7 @@ double seconds(std::chrono::steady_clock::time_point since)
 
 double peakMiB()
 {
-    rusage usage{};
+    rusage usage {};
     getrusage(RUSAGE_SELF, &usage);
     return static_cast<double>(usage.ru_maxrss) / 1024.0;
 }
@@ -42,7 +42,7 @@ Dataset generate(std::uint32_t users, std::uint32_t items, std::uint32_t trainPe
 {
     constexpr int kRank = 8;
     Dataset d;
-    d.scale = {1.0, 5.0, 0.0, false};
+    d.scale = { 1.0, 5.0, 0.0, false };
     d.userIds.resize(users);
     d.items.resize(items);
     for (std::uint32_t i = 0; i < items; ++i)
@@ -79,7 +79,7 @@ Dataset generate(std::uint32_t users, std::uint32_t items, std::uint32_t trainPe
                 for (int f = 0; f < kRank; ++f)
                     r += p[f] * q[static_cast<std::size_t>(i) * kRank + f];
                 r = std::min(5.0f, std::max(1.0f, std::round(r)));
-                const Interaction row{ItemIndex(i), r, static_cast<Timestamp>(k)};
+                const Interaction row { ItemIndex(i), r, static_cast<Timestamp>(k) };
                 if (k < trainPerUser)
                     d.train.rows[u * trainPerUser + k] = row;
                 else
@@ -106,12 +106,12 @@ int main(int argc, char** argv)
     const std::uint32_t items = argc > 2 ? static_cast<std::uint32_t>(std::atoi(argv[2])) : 40000;
     const std::uint32_t perUser = argc > 3 ? static_cast<std::uint32_t>(std::atoi(argv[3])) : 63;
     std::printf("bench_models: %u users, %u items, %u train ratings per user, %u worker threads\n", users, items,
-                perUser, workerCount());
+        perUser, workerCount());
 
     auto t = std::chrono::steady_clock::now();
     const Dataset data = generate(users, items, perUser, 5);
-    std::printf("generate: %.2f s, %zu train rows, %zu withheld rows\n", seconds(t), data.train.size(),
-                data.withheld.size());
+    std::printf(
+        "generate: %.2f s, %zu train rows, %zu withheld rows\n", seconds(t), data.train.size(), data.withheld.size());
 
     t = std::chrono::steady_clock::now();
     const TrainMatrix train = TrainMatrix::build(data);
@@ -126,10 +126,20 @@ int main(int argc, char** argv)
     t = std::chrono::steady_clock::now();
     auto biasRun = bias->toRun(data, train, settings, {});
     std::printf("bias baseline withheld scores + top-100 lists: %.2f s (%lld list rows)\n", seconds(t),
-                static_cast<long long>(biasRun->info.listRowCount));
+        static_cast<long long>(biasRun->info.listRowCount));
+
+    settings.kind = ModelKind::ItemKnn;
+    t = std::chrono::steady_clock::now();
+    auto knn = ItemKnnModel::fit(data, train, settings, {});
+    std::printf("itemknn fit (baseline + similarities, pool %d): %.2f s (%zu pool entries)\n", settings.neighbourPool,
+        seconds(t), knn->pool.size());
+    t = std::chrono::steady_clock::now();
+    auto knnRun = knn->toRun(data, train, settings, {});
+    std::printf("itemknn withheld scores + top-100 lists (k = %d): %.2f s (%lld list rows)\n", settings.neighbours,
+        seconds(t), static_cast<long long>(knnRun->info.listRowCount));
 
     settings.kind = ModelKind::Als;
-    for (int rank : {8, 16, 32, 64}) {
+    for (int rank : { 8, 16, 32, 64 }) {
         settings.rank = rank;
         AlsModel m = AlsModel::initial(train, settings);
         t = std::chrono::steady_clock::now();
@@ -143,14 +153,13 @@ int main(int argc, char** argv)
         const double rmseTime = seconds(t);
         std::printf("als rank %2d: one iteration %.2f s (item step %.2f s, user step %.2f s); train RMSE pass %.2f s "
                     "(RMSE %.4f)%s\n",
-                    rank, itemStep + userStep, itemStep, userStep, rmseTime, rmse,
-                    rank == 32 ? "  [target <= 5 s]" : "");
+            rank, itemStep + userStep, itemStep, userStep, rmseTime, rmse, rank == 32 ? "  [target <= 5 s]" : "");
         if (rank == 32) {
             t = std::chrono::steady_clock::now();
             auto run = m.toRun(data, train, settings, {});
             std::printf("als rank 32 withheld scores + top-100 lists for all users: %.2f s (%lld list rows) "
                         "[target <= 10 s]\n",
-                        seconds(t), static_cast<long long>(run->info.listRowCount));
+                seconds(t), static_cast<long long>(run->info.listRowCount));
         }
     }
     std::printf("peak memory: %.0f MiB\n", peakMiB());

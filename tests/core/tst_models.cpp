@@ -6,6 +6,7 @@
 #include "core/itemknnmodel.h"
 #include "core/modelfitter.h"
 #include "core/seededrandom.h"
+#include "core/topnlist.h"
 #include "core/trainmatrix.h"
 
 #include <QTest>
@@ -378,6 +379,49 @@ private slots:
                     qPrintable(QStringLiteral("user %1 rank %2").arg(u).arg(k + 1)));
             }
         }
+    }
+
+    void itemKnnListsEqualScoringEveryItem()
+    {
+        // The lists come from an index of which pools hold each rated item; they must be
+        // exactly what scoring every unseen item with predict() and keeping the best gives
+        // (common practice: exact top-N), including items that only score their baseline.
+        const Dataset d = lowRankData(0.5, 3, 150, 400, 30, 3, 8);
+        ModelSettings s;
+        s.kind = ModelKind::ItemKnn;
+        s.neighbours = 5;
+        s.neighbourPool = 30;
+        s.listLength = 40;
+        s.clipToScale = false;
+        const TrainMatrix t = TrainMatrix::build(d);
+        auto m = ItemKnnModel::fit(d, t, s, {});
+        QVERIFY(m.ok());
+        auto run = m->toRun(d, t, s, {});
+        QVERIFY(run.ok());
+        std::vector<float> residual(t.items, std::nanf(""));
+        int baselineOnly = 0;
+        for (std::uint32_t u = 0; u < d.userCount(); ++u) {
+            const auto items = t.itemsOf(u);
+            const auto ratings = t.ratingsOf(u);
+            for (std::size_t r = 0; r < items.size(); ++r)
+                residual[items[r]] = static_cast<float>(ratings[r] - m->baseline.predict(u, items[r]));
+            TopNList top(40);
+            for (std::uint32_t i = 0; i < t.items; ++i)
+                if (!t.seen(u, i))
+                    top.offer(i, static_cast<float>(m->predict(u, i, residual)));
+            const auto expected = top.take();
+            const auto got = run->listOf(UserIndex(u));
+            QCOMPARE(got.size(), expected.size());
+            for (std::size_t k = 0; k < got.size(); ++k) {
+                QCOMPARE(got[k].item.value, expected[k].item.value);
+                QCOMPARE(got[k].score, expected[k].score);
+                if (expected[k].score == static_cast<float>(m->baseline.predict(u, expected[k].item.value)))
+                    ++baselineOnly;
+            }
+            for (std::uint32_t i : items)
+                residual[i] = std::nanf("");
+        }
+        QVERIFY(baselineOnly > 0); // the baseline-only path was exercised
     }
 
     void cancelStopsTheFit()
