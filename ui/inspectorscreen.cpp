@@ -43,6 +43,16 @@ QTableView* makeTable(QAbstractItemModel* model, QWidget* parent)
     return view;
 }
 
+/// Shows `columns` right after the first one, in that order: the verdict (hit, missing,
+/// sequel first), score and rank stay in sight while long titles and genres scroll.
+void showEarly(QTableView* view, std::initializer_list<int> columns)
+{
+    QHeaderView* header = view->horizontalHeader();
+    int to = 1;
+    for (int logical : columns)
+        header->moveSection(header->visualIndex(logical), to++);
+}
+
 QWidget* titled(const QString& title, QWidget* content, QWidget* parent)
 {
     auto* box = new QGroupBox(title, parent);
@@ -54,12 +64,22 @@ QWidget* titled(const QString& title, QWidget* content, QWidget* parent)
 } // namespace
 
 InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
-    : QWidget(parent), m_document(document), m_heading(new QLabel(this)), m_run(new QComboBox(this)),
-      m_previous(new QPushButton(tr("◀ &Previous user"), this)), m_next(new QPushButton(tr("&Next user ▶"), this)),
-      m_summary(new QLabel(this)), m_listModel(new InspectorListModel(this)), m_withheldModel(new WithheldModel(this)),
-      m_metricsModel(new UserMetricsModel(this)), m_listView(makeTable(m_listModel, this)),
-      m_withheldView(makeTable(m_withheldModel, this)), m_metricsView(makeTable(m_metricsModel, this)),
-      m_warnings(new QListWidget(this)), m_scoreChart(new ScoreRatingChart(this)), m_timeline(new GenreTimelineChart(this))
+    : QWidget(parent)
+    , m_document(document)
+    , m_heading(new QLabel(this))
+    , m_run(new QComboBox(this))
+    , m_previous(new QPushButton(tr("◀ &Previous user"), this))
+    , m_next(new QPushButton(tr("&Next user ▶"), this))
+    , m_summary(new QLabel(this))
+    , m_listModel(new InspectorListModel(this))
+    , m_withheldModel(new WithheldModel(this))
+    , m_metricsModel(new UserMetricsModel(this))
+    , m_listView(makeTable(m_listModel, this))
+    , m_withheldView(makeTable(m_withheldModel, this))
+    , m_metricsView(makeTable(m_metricsModel, this))
+    , m_warnings(new QListWidget(this))
+    , m_scoreChart(new ScoreRatingChart(this))
+    , m_timeline(new GenreTimelineChart(this))
 {
     QFont headingFont = m_heading->font();
     headingFont.setPointSizeF(headingFont.pointSizeF() * 1.3);
@@ -67,6 +87,9 @@ InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
     m_heading->setFont(headingFont);
     m_heading->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_summary->setWordWrap(true);
+    showEarly(m_listView, { InspectorListModel::Marks, InspectorListModel::Title, InspectorListModel::Score });
+    showEarly(
+        m_withheldView, { WithheldModel::Marks, WithheldModel::Title, WithheldModel::Score, WithheldModel::ListRank });
     m_listView->setObjectName(QStringLiteral("user-list"));
     m_withheldView->setObjectName(QStringLiteral("user-withheld"));
     m_metricsView->setObjectName(QStringLiteral("user-metrics"));
@@ -100,7 +123,7 @@ InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
     lower->setStretchFactor(2, 2);
     lower->setStretchFactor(3, 3);
     // Wide enough for the metric table's three columns and the chart titles.
-    lower->setSizes({300, 500, 400, 400}); // the metrics table needs room for its verdict column
+    lower->setSizes({ 300, 500, 400, 400 }); // the metrics table needs room for its verdict column
 
     auto* split = new QSplitter(Qt::Vertical, this);
     split->addWidget(lists);
@@ -195,36 +218,38 @@ void InspectorScreen::refresh()
     if (!m_user || !data || !eval || !run) {
         m_heading->setText(tr("No user chosen"));
         m_summary->setText(m_document->isOpen() && !data
-                               ? tr("Reading the dataset…")
-                               : tr("Pick a user on the Users screen (Enter or double-click) or in the comparison's "
-                                    "who-got-worse list."));
+                ? tr("Reading the dataset…")
+                : tr("Pick a user on the Users screen (Enter or double-click) or in the comparison's "
+                     "who-got-worse list."));
         m_listModel->setResults(nullptr, nullptr);
         m_withheldModel->setResults(nullptr, nullptr);
         m_metricsModel->setResults(nullptr);
         m_scoreChart->setData({}, QString(), QString());
-        m_timeline->setData(GenreTimeline{}, QString());
+        m_timeline->setData(GenreTimeline {}, QString());
         updateButtons();
         return;
     }
     auto cached = m_meanCache.find(eval.get());
     if (cached == m_meanCache.end())
         cached = m_meanCache.emplace(eval.get(), UserInspection::columnMeans(*eval)).first;
-    auto inspection = std::make_shared<const UserInspection>(UserInspection::build(*data, *run, *eval, *m_user, cached->second));
+    auto inspection
+        = std::make_shared<const UserInspection>(UserInspection::build(*data, *run, *eval, *m_user, cached->second));
     m_inspection = inspection;
 
     const QString userId = m_document->userIdOf(*m_user);
     m_heading->setText(tr("User %1 under run “%2”").arg(userId, m_run->currentText()));
-    const int relevant = static_cast<int>(std::count_if(inspection->withheld.begin(), inspection->withheld.end(),
-                                                        [](const auto& w) { return w.relevant; }));
-    m_summary->setText(
-        tr("History: %1 titles. Withheld: %2 titles, %3 of them favourites (rated ≥ %4). The top %5 holds %6 of them. %7")
-            .arg(inspection->trainCount)
-            .arg(inspection->withheld.size())
-            .arg(relevant)
-            .arg(inspection->relevantAt)
-            .arg(inspection->k)
-            .arg(inspection->hits())
-            .arg(inspection->found ? QString() : tr("This run has no results for the user (no withheld items).")));
+    const int relevant = static_cast<int>(std::count_if(
+        inspection->withheld.begin(), inspection->withheld.end(), [](const auto& w) { return w.relevant; }));
+    m_summary->setText(tr(
+        "History: %1 titles. Withheld: %2 titles, %3 of them favourites (rated ≥ %4). The top %5 holds %6 of them. %7")
+                           .arg(inspection->trainCount)
+                           .arg(inspection->withheld.size())
+                           .arg(relevant)
+                           .arg(inspection->relevantAt)
+                           .arg(inspection->k)
+                           .arg(inspection->hits())
+                           .arg(inspection->found ? QString()
+                                                  : tr("This run has no results for the user (no withheld items).")));
 
     m_listModel->setResults(inspection, data);
     m_withheldModel->setResults(inspection, data);
@@ -233,8 +258,9 @@ void InspectorScreen::refresh()
         m_warnings->addItem(tr("No warnings for this user under this run."));
     for (const auto& w : inspection->warnings) {
         const auto& info = core::warningInfo(w.code);
-        auto* item = new QListWidgetItem(QStringLiteral("%1 [%2] — %3").arg(toQ(info.title), toQ(core::toString(w.severity)), toQ(w.message)),
-                                         m_warnings);
+        auto* item = new QListWidgetItem(
+            QStringLiteral("%1 [%2] — %3").arg(toQ(info.title), toQ(core::toString(w.severity)), toQ(w.message)),
+            m_warnings);
         item->setToolTip(tr("%1\nMeasured %2, threshold %3 (code “%4”).")
                              .arg(toQ(info.explains))
                              .arg(w.value)
@@ -244,7 +270,7 @@ void InspectorScreen::refresh()
     std::vector<ScoreRatingChart::Point> points;
     for (const auto& w : inspection->withheld)
         if (!std::isnan(w.score))
-            points.push_back({w.rating, w.score, toQ(data->items[w.item.value].title)});
+            points.push_back({ w.rating, w.score, toQ(data->items[w.item.value].title) });
     m_scoreChart->setData(std::move(points), userId, m_run->currentText(), data->scale.min, data->scale.max);
     m_timeline->setData(GenreTimeline::build(*data, *m_user, eval->settings.burstWindow), userId);
     updateButtons();
