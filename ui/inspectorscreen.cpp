@@ -4,6 +4,7 @@
 #include "core/dataset.h"
 #include "core/evaluation.h"
 #include "core/run.h"
+#include "ui/columnorder.h"
 #include "ui/format.h"
 #include "ui/genretimelinechart.h"
 #include "ui/inspectorlistmodel.h"
@@ -43,16 +44,6 @@ QTableView* makeTable(QAbstractItemModel* model, QWidget* parent)
     return view;
 }
 
-/// Shows `columns` right after the first one, in that order: the verdict (hit, missing,
-/// sequel first), score and rank stay in sight while long titles and genres scroll.
-void showEarly(QTableView* view, std::initializer_list<int> columns)
-{
-    QHeaderView* header = view->horizontalHeader();
-    int to = 1;
-    for (int logical : columns)
-        header->moveSection(header->visualIndex(logical), to++);
-}
-
 QWidget* titled(const QString& title, QWidget* content, QWidget* parent)
 {
     auto* box = new QGroupBox(title, parent);
@@ -87,8 +78,8 @@ InspectorScreen::InspectorScreen(WorkspaceDocument* document, QWidget* parent)
     m_heading->setFont(headingFont);
     m_heading->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_summary->setWordWrap(true);
-    showEarly(m_listView, { InspectorListModel::Marks, InspectorListModel::Title, InspectorListModel::Score });
-    showEarly(
+    showColumnsEarly(m_listView, { InspectorListModel::Marks, InspectorListModel::Title, InspectorListModel::Score });
+    showColumnsEarly(
         m_withheldView, { WithheldModel::Marks, WithheldModel::Title, WithheldModel::Score, WithheldModel::ListRank });
     m_listView->setObjectName(QStringLiteral("user-list"));
     m_withheldView->setObjectName(QStringLiteral("user-withheld"));
