@@ -13,22 +13,27 @@
 #include <QDialogButtonBox>
 #include <QDoubleSpinBox>
 #include <QFormLayout>
-#include <QHBoxLayout>
 #include <QLabel>
 #include <QLineEdit>
 #include <QPointer>
-#include <QProgressBar>
 #include <QPushButton>
 #include <QSpinBox>
 #include <QVBoxLayout>
 
+#include <memory>
+
 namespace slatewise::ui {
 
 FitDialog::FitDialog(const QString& workspacePath, QWidget* parent)
-    : QDialog(parent), m_path(workspacePath), m_model(new QComboBox(this)), m_name(new QLineEdit(this)), m_rank(new QSpinBox(this)),
-      m_lambda(new QDoubleSpinBox(this)), m_iterations(new QSpinBox(this)), m_neighbours(new QSpinBox(this)),
-      m_seed(new QSpinBox(this)), m_chart(new FitLossChart(this)), m_progress(new QProgressBar(this)), m_status(new QLabel(this)),
-      m_start(new QPushButton(tr("&Fit"), this)), m_cancel(new QPushButton(tr("Cancel fit"), this)), m_task(new BackgroundTask(this))
+    : RunJobDialog(workspacePath, tr("&Fit"), tr("Cancel fit"), parent)
+    , m_model(new QComboBox(this))
+    , m_name(new QLineEdit(this))
+    , m_rank(new QSpinBox(this))
+    , m_lambda(new QDoubleSpinBox(this))
+    , m_iterations(new QSpinBox(this))
+    , m_neighbours(new QSpinBox(this))
+    , m_seed(new QSpinBox(this))
+    , m_chart(new FitLossChart(this))
 {
     setWindowTitle(tr("Fit a reference model"));
     const core::ModelSettings defaults;
@@ -61,22 +66,12 @@ FitDialog::FitDialog(const QString& workspacePath, QWidget* parent)
     form->addRow(tr("N&eighbours:"), m_neighbours);
     form->addRow(tr("&Seed:"), m_seed);
 
-    m_progress->setRange(0, 1000);
-    m_status->setWordWrap(true);
-    m_cancel->setEnabled(false);
-    auto* row = new QHBoxLayout;
-    row->addWidget(m_progress, 1);
-    row->addWidget(m_cancel);
-    row->addWidget(m_start);
-    auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close, this);
-    connect(buttons, &QDialogButtonBox::rejected, this, &FitDialog::reject);
-
     auto* layout = new QVBoxLayout(this);
     layout->addLayout(form);
     layout->addWidget(m_chart, 1);
     layout->addWidget(m_status);
-    layout->addLayout(row);
-    layout->addWidget(buttons);
+    layout->addLayout(jobControls());
+    layout->addWidget(closeButtons());
 
     connect(m_model, &QComboBox::currentIndexChanged, this, [this] {
         const QString kind = m_model->currentData().toString();
@@ -84,11 +79,6 @@ FitDialog::FitDialog(const QString& workspacePath, QWidget* parent)
         updateEnabled();
     });
     connect(m_start, &QPushButton::clicked, this, &FitDialog::startFit);
-    connect(m_cancel, &QPushButton::clicked, this, &FitDialog::cancel);
-    connect(m_task, &BackgroundTask::progressed, this, [this](double fraction, const QString& stage) {
-        m_progress->setValue(static_cast<int>(fraction * 1000.0));
-        m_status->setText(stage);
-    });
     ExportContextMenu::attach(m_chart); // save the loss curve like any other chart
     updateEnabled();
     resize(720, 640);
@@ -128,11 +118,6 @@ QString FitDialog::runName() const
     return m_name->text().trimmed();
 }
 
-QString FitDialog::statusText() const
-{
-    return m_status->text();
-}
-
 void FitDialog::updateEnabled()
 {
     const QString kind = m_model->currentData().toString();
@@ -164,7 +149,7 @@ bool FitDialog::startFit()
     request.settings.seed = static_cast<std::uint64_t>(m_seed->value());
     QPointer<FitLossChart> chart = m_chart;
     request.onIteration = [chart](const core::FitIteration& it) {
-        FitLossChart::Iteration point{it.iteration, it.trainRmse, it.withheldRmse};
+        FitLossChart::Iteration point { it.iteration, it.trainRmse, it.withheldRmse };
         QMetaObject::invokeMethod(
             chart.data(),
             [chart, point] {
@@ -175,63 +160,23 @@ bool FitDialog::startFit()
     };
     m_chart->setData({}, m_model->currentText());
 
-    struct Outcome {
-        QString error;
-        bool cancelled = false;
-        double seconds = 0;
-    };
-    auto outcome = std::make_shared<Outcome>();
-    const std::string path = m_path.toStdString();
-    m_start->setEnabled(false);
-    m_cancel->setEnabled(true);
-    m_status->setText(tr("Fitting…"));
-    m_task->start(
-        tr("Fitting %1").arg(m_name->text()),
-        [outcome, path, request](const core::Progress& progress) {
-            auto ws = core::Workspace::open(path);
-            if (!ws) {
-                outcome->error = toQ(ws.error().toString());
-                return;
-            }
-            auto result = core::fitAndStore(ws.value(), request, progress);
-            if (!result) {
-                outcome->cancelled = result.error().kind == core::ErrorKind::Cancelled;
-                outcome->error = toQ(result.error().toString());
-                return;
-            }
-            outcome->seconds = result->seconds;
+    auto seconds = std::make_shared<double>(0.0);
+    const QString name = m_name->text().trimmed();
+    return startJob(
+        tr("Fitting %1").arg(name), tr("Fitting…"), tr("The fit failed: %1"),
+        [request, seconds](core::Workspace& ws, const core::Progress& progress) -> core::Status {
+            auto result = core::fitAndStore(ws, request, progress);
+            if (!result)
+                return result.errors();
+            *seconds = result->seconds;
+            return core::Done {};
         },
-        [this, outcome, name = m_name->text().trimmed()] {
-            m_start->setEnabled(true);
-            m_cancel->setEnabled(false);
-            if (outcome->cancelled) {
-                m_status->setText(tr("Cancelled — nothing was stored."));
-                m_progress->setValue(0);
-                return;
-            }
-            if (!outcome->error.isEmpty()) {
-                m_status->setText(tr("The fit failed: %1").arg(outcome->error));
-                return;
-            }
-            m_progress->setValue(1000);
-            m_status->setText(tr("Stored run “%1” (fitted in %2 s). It is evaluated with the others.").arg(name).arg(outcome->seconds, 0, 'f', 1));
+        [this, seconds, name] {
+            m_status->setText(tr("Stored run “%1” (fitted in %2 s). It is evaluated with the others.")
+                                  .arg(name)
+                                  .arg(*seconds, 0, 'f', 1));
             emit fitted(name);
         });
-    return true;
-}
-
-void FitDialog::cancel()
-{
-    m_task->cancel();
-}
-
-void FitDialog::reject()
-{
-    if (m_task->isRunning()) {
-        m_task->cancel();
-        m_task->waitForDone();
-    }
-    QDialog::reject();
 }
 
 } // namespace slatewise::ui

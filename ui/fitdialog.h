@@ -1,25 +1,21 @@
 // SPDX-License-Identifier: MIT
 #pragma once
 
-#include <QDialog>
+#include "ui/runjobdialog.h"
 
 class QComboBox;
 class QDoubleSpinBox;
-class QLabel;
 class QLineEdit;
-class QProgressBar;
-class QPushButton;
 class QSpinBox;
 
 namespace slatewise::ui {
 
-class BackgroundTask;
 class FitLossChart;
 
 /// "Fit a reference model": the settings of `slatewise fit`, a live per-iteration loss chart
 /// (train and withheld RMSE), progress and cancel. The fitted run is stored in the workspace
 /// (cancel stores nothing) and evaluated like any imported run.
-class FitDialog : public QDialog {
+class FitDialog : public RunJobDialog {
     Q_OBJECT
 public:
     FitDialog(const QString& workspacePath, QWidget* parent = nullptr);
@@ -32,23 +28,16 @@ public:
     void setLambda(double lambda);
     void setIterations(int iterations);
     QString runName() const;
-    QString statusText() const;
     FitLossChart* chart() const { return m_chart; }
 
     bool startFit();
-    void cancel();
-    BackgroundTask* task() const { return m_task; }
 
 signals:
     void fitted(const QString& runName);
 
-protected:
-    void reject() override;
-
 private:
     void updateEnabled();
 
-    QString m_path;
     QComboBox* m_model;
     QLineEdit* m_name;
     QSpinBox* m_rank;
@@ -57,11 +46,6 @@ private:
     QSpinBox* m_neighbours;
     QSpinBox* m_seed;
     FitLossChart* m_chart;
-    QProgressBar* m_progress;
-    QLabel* m_status;
-    QPushButton* m_start;
-    QPushButton* m_cancel;
-    BackgroundTask* m_task;
 };
 
 } // namespace slatewise::ui

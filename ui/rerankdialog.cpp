@@ -11,29 +11,23 @@
 #include <QDialogButtonBox>
 #include <QDoubleSpinBox>
 #include <QFormLayout>
-#include <QHBoxLayout>
 #include <QLabel>
 #include <QLineEdit>
-#include <QProgressBar>
 #include <QPushButton>
 #include <QVBoxLayout>
+
+#include <memory>
 
 namespace slatewise::ui {
 
 RerankDialog::RerankDialog(const QString& workspacePath, const QStringList& runNames, QWidget* parent)
-    : QDialog(parent)
-    , m_path(workspacePath)
+    : RunJobDialog(workspacePath, tr("&Re-rank"), tr("Cancel re-ranking"), parent)
     , m_parent(new QComboBox(this))
     , m_method(new QComboBox(this))
     , m_lambda(new QDoubleSpinBox(this))
     , m_lambdaHelp(new QLabel(this))
     , m_name(new QLineEdit(this))
     , m_explanation(new QLabel(this))
-    , m_progress(new QProgressBar(this))
-    , m_status(new QLabel(this))
-    , m_start(new QPushButton(tr("&Re-rank"), this))
-    , m_cancel(new QPushButton(tr("Cancel re-ranking"), this))
-    , m_task(new BackgroundTask(this))
 {
     setWindowTitle(tr("Re-rank a run (what-if)"));
     m_parent->addItems(runNames);
@@ -49,7 +43,6 @@ RerankDialog::RerankDialog(const QString& workspacePath, const QStringList& runN
     // Word-wrapped labels get a little more height than they need; keep the text at the top.
     m_lambdaHelp->setAlignment(Qt::AlignLeft | Qt::AlignTop);
     m_explanation->setAlignment(Qt::AlignLeft | Qt::AlignTop);
-    m_status->setWordWrap(true);
 
     auto* form = new QFormLayout;
     form->addRow(tr("&Parent run:"), m_parent);
@@ -59,32 +52,17 @@ RerankDialog::RerankDialog(const QString& workspacePath, const QStringList& runN
     form->addRow(QString(), m_lambdaHelp);
     form->addRow(tr("New run &name:"), m_name);
 
-    m_progress->setRange(0, 1000);
-    m_progress->setValue(0);
-    m_cancel->setEnabled(false);
-    auto* row = new QHBoxLayout;
-    row->addWidget(m_progress, 1);
-    row->addWidget(m_cancel);
-    row->addWidget(m_start);
-    auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close, this);
-    connect(buttons, &QDialogButtonBox::rejected, this, &RerankDialog::reject);
-
     auto* layout = new QVBoxLayout(this);
     layout->addLayout(form);
     layout->addStretch(1);
     layout->addWidget(m_status);
-    layout->addLayout(row);
-    layout->addWidget(buttons);
+    layout->addLayout(jobControls());
+    layout->addWidget(closeButtons());
 
     connect(m_parent, &QComboBox::currentIndexChanged, this, &RerankDialog::suggestName);
     connect(m_method, &QComboBox::currentIndexChanged, this, &RerankDialog::methodChanged);
     connect(m_lambda, &QDoubleSpinBox::valueChanged, this, &RerankDialog::suggestName);
     connect(m_start, &QPushButton::clicked, this, &RerankDialog::startRerank);
-    connect(m_cancel, &QPushButton::clicked, this, &RerankDialog::cancel);
-    connect(m_task, &BackgroundTask::progressed, this, [this](double fraction, const QString& stage) {
-        m_progress->setValue(static_cast<int>(fraction * 1000.0));
-        m_status->setText(stage);
-    });
     m_start->setEnabled(!runNames.isEmpty());
     if (runNames.isEmpty())
         m_status->setText(tr("The workspace has no run to re-rank yet."));
@@ -119,11 +97,6 @@ void RerankDialog::setRunName(const QString& name)
 QString RerankDialog::runName() const
 {
     return m_name->text().trimmed();
-}
-
-QString RerankDialog::statusText() const
-{
-    return m_status->text();
 }
 
 void RerankDialog::methodChanged()
@@ -187,68 +160,26 @@ bool RerankDialog::startRerank()
     request.settings.method = *method;
     request.settings.lambda = m_lambda->value();
 
-    struct Outcome {
-        QString error;
-        bool cancelled = false;
-        std::int64_t users = 0;
-    };
-    auto outcome = std::make_shared<Outcome>();
-    const std::string path = m_path.toStdString();
-    m_start->setEnabled(false);
-    m_cancel->setEnabled(true);
-    m_progress->setValue(0);
-    m_status->setText(tr("Re-ranking…"));
-    return m_task->start(
-        tr("Re-ranking %1").arg(m_parent->currentText()),
-        [outcome, path, request](const core::Progress& progress) {
-            auto ws = core::Workspace::open(path);
-            if (!ws) {
-                outcome->error = toQ(ws.error().toString());
-                return;
-            }
-            auto result = core::rerankAndStore(ws.value(), request, progress);
-            if (!result) {
-                outcome->cancelled = result.error().kind == core::ErrorKind::Cancelled;
-                outcome->error = toQ(result.error().toString());
-                return;
-            }
-            outcome->users = result->listUserCount;
+    auto users = std::make_shared<std::int64_t>(0);
+    const QString name = runName(), parent = m_parent->currentText();
+    return startJob(
+        tr("Re-ranking %1").arg(parent), tr("Re-ranking…"), tr("The re-ranking failed: %1"),
+        [request, users](core::Workspace& ws, const core::Progress& progress) -> core::Status {
+            auto result = core::rerankAndStore(ws, request, progress);
+            if (!result)
+                return result.errors();
+            *users = result->listUserCount;
+            return core::Done {};
         },
-        [this, outcome, name = runName(), parent = m_parent->currentText()] {
-            m_start->setEnabled(true);
-            m_cancel->setEnabled(false);
-            if (outcome->cancelled) {
-                m_status->setText(tr("Cancelled — nothing was stored."));
-                m_progress->setValue(0);
-                return;
-            }
-            if (!outcome->error.isEmpty()) {
-                m_status->setText(tr("The re-ranking failed: %1").arg(outcome->error));
-                return;
-            }
-            m_progress->setValue(1000);
+        [this, users, name, parent] {
             m_status->setText(
                 tr("Stored run “%1” (lists of %2 users re-ranked from “%3”). Compare it with its parent on "
                    "the Compare runs screen.")
                     .arg(name)
-                    .arg(outcome->users)
+                    .arg(*users)
                     .arg(parent));
             emit reranked(name, parent);
         });
-}
-
-void RerankDialog::cancel()
-{
-    m_task->cancel();
-}
-
-void RerankDialog::reject()
-{
-    if (m_task->isRunning()) {
-        m_task->cancel();
-        m_task->waitForDone();
-    }
-    QDialog::reject();
 }
 
 } // namespace slatewise::ui
