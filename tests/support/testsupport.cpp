@@ -2,6 +2,7 @@
 #include "support/testsupport.h"
 
 #include <QDir>
+#include <QElapsedTimer>
 #include <QFile>
 #include <QProcess>
 #include <QTest>
@@ -30,7 +31,7 @@ void failingHandler(QtMsgType type, const QMessageLogContext& context, const QSt
     if (type == QtWarningMsg || type == QtCriticalMsg || type == QtFatalMsg) {
         // QTest routes ignored messages before they reach us, so anything here was unexpected.
         QTest::qFail(qPrintable(QStringLiteral("unexpected message: ") + message), context.file ? context.file : "",
-                     context.line);
+            context.line);
     }
 }
 } // namespace
@@ -63,6 +64,49 @@ QByteArray fileBytes(const QString& path)
     if (!f.open(QIODevice::ReadOnly))
         return {};
     return f.readAll();
+}
+
+QString buildDemoWorkspace(const QString& path, const QString& scratchDir)
+{
+    auto demo = runCli({ QStringLiteral("demo"), path, QStringLiteral("--quiet") });
+    if (demo.exitCode != 0) {
+        // Without committed demo files, regenerate them first (the same seeded generator).
+        const auto data
+            = runCli({ QStringLiteral("demo-data"), QStringLiteral("--out"), scratchDir, QStringLiteral("--quiet") });
+        if (data.exitCode != 0)
+            return data.err.isEmpty() ? QStringLiteral("demo-data failed") : data.err;
+        demo
+            = runCli({ QStringLiteral("demo"), path, QStringLiteral("--from"), scratchDir, QStringLiteral("--quiet") });
+    }
+    if (demo.exitCode != 0)
+        return demo.err.isEmpty() ? QStringLiteral("demo failed") : demo.err;
+    return {};
+}
+
+bool waitFor(const std::function<bool()>& done, int timeoutMs)
+{
+    QElapsedTimer clock;
+    clock.start();
+    while (!done()) {
+        if (clock.elapsed() > timeoutMs)
+            return false;
+        QTest::qWait(20);
+    }
+    return true;
+}
+
+int pdfPageCount(const QByteArray& pdf)
+{
+    int count = 0;
+    for (const QByteArray& needle : { QByteArray("/Type /Page"), QByteArray("/Type/Page") }) {
+        qsizetype from = 0;
+        while ((from = pdf.indexOf(needle, from)) >= 0) {
+            from += needle.size();
+            if (from < pdf.size() && pdf[from] != 's')
+                ++count;
+        }
+    }
+    return count;
 }
 
 } // namespace slatewise::test

@@ -2,7 +2,6 @@
 // Exports: every chart to PNG, SVG and PDF; tables to CSV with formula escaping; the meeting pack.
 #include "core/dataset.h"
 #include "core/run.h"
-#include "support/testsupport.h"
 #include "ui/banderrorchart.h"
 #include "ui/chartexporter.h"
 #include "ui/csvexporter.h"
@@ -23,10 +22,11 @@
 #include <QTemporaryDir>
 #include <QTest>
 #include <QXmlStreamReader>
+#include <qcustomplot.h>
 
 #include <memory>
 
-#include <qcustomplot.h>
+#include "support/testsupport.h"
 
 using namespace slatewise;
 using namespace slatewise::ui;
@@ -40,12 +40,13 @@ std::vector<core::RunEvaluation> sampleRuns()
         core::RunEvaluation e;
         e.runName = r == 0 ? "baseline" : "candidate";
         e.settings.k = 10;
-        e.accuracy = core::AccuracySummary{};
+        e.accuracy = core::AccuracySummary {};
         e.accuracy->rmse = 0.9 - 0.1 * r;
         e.accuracy->scoredFraction = 1.0;
         for (int b = 1; b <= 5; ++b)
-            e.accuracy->bands.push_back({double(b), 100 * b, 1.4 - 0.2 * b + 0.1 * r, 1.0, 1.2 - 0.5 * (b - 1) + 0.1 * r});
-        e.ranking = core::RankingSummary{};
+            e.accuracy->bands.push_back(
+                { double(b), 100 * b, 1.4 - 0.2 * b + 0.1 * r, 1.0, 1.2 - 0.5 * (b - 1) + 0.1 * r });
+        e.ranking = core::RankingSummary {};
         e.ranking->users = 500;
         e.ranking->ndcg = 0.3 + 0.02 * r;
         for (int k = 1; k <= 50; ++k) {
@@ -54,11 +55,11 @@ std::vector<core::RunEvaluation> sampleRuns()
             e.ranking->curves.recall.push_back(std::min(1.0, 0.03 * k + 0.02 * r));
             e.ranking->curves.ndcg.push_back(0.2 + 0.004 * k + 0.01 * r);
         }
-        e.ci["rmse"] = {e.accuracy->rmse - 0.02, e.accuracy->rmse + 0.02};
-        e.beyond = core::BeyondSummary{};
+        e.ci["rmse"] = { e.accuracy->rmse - 0.02, e.accuracy->rmse + 0.02 };
+        e.beyond = core::BeyondSummary {};
         e.beyond->ild = 0.5;
         e.beyond->coverage = 0.3;
-        e.warningShare = {{"narrow", 0.2 + 0.1 * r}, {"sequel-first", 0.05}, {"binge-echo", 0.12 - 0.05 * r}};
+        e.warningShare = { { "narrow", 0.2 + 0.1 * r }, { "sequel-first", 0.05 }, { "binge-echo", 0.12 - 0.05 * r } };
         runs.push_back(e);
     }
     return runs;
@@ -67,19 +68,21 @@ std::vector<core::RunEvaluation> sampleRuns()
 core::Dataset sampleDataset()
 {
     core::Dataset data;
-    data.genreNames = {"drama", "comedy", "mystery"};
-    data.userIds = {"u1"};
+    data.genreNames = { "drama", "comedy", "mystery" };
+    data.userIds = { "u1" };
     for (int i = 0; i < 3; ++i) {
         core::Item item;
         item.title = "Title " + std::to_string(i);
-        item.genres = {i};
+        item.genres = { i };
         data.items.push_back(item);
     }
     for (int i = 0; i < 40; ++i)
-        data.train.rows.push_back({core::ItemIndex(i < 30 ? std::uint32_t(i % 2) : 2u), 4.0f, 1700000000 + i * 86400});
-    data.train.offsets = {0, 40};
-    data.withheld.rows = {{core::ItemIndex(0), 5.0f, 0}, {core::ItemIndex(1), 2.0f, 0}, {core::ItemIndex(2), 4.0f, 0}};
-    data.withheld.offsets = {0, 3};
+        data.train.rows.push_back(
+            { core::ItemIndex(i < 30 ? std::uint32_t(i % 2) : 2u), 4.0f, 1700000000 + i * 86400 });
+    data.train.offsets = { 0, 40 };
+    data.withheld.rows
+        = { { core::ItemIndex(0), 5.0f, 0 }, { core::ItemIndex(1), 2.0f, 0 }, { core::ItemIndex(2), 4.0f, 0 } };
+    data.withheld.offsets = { 0, 3 };
     return data;
 }
 
@@ -97,18 +100,18 @@ std::vector<std::unique_ptr<ChartView>> allCharts()
     warnings->setData(runs);
     charts.push_back(std::move(warnings));
     auto errors = std::make_unique<ErrorDistributionChart>();
-    errors->setData({{QStringLiteral("baseline"), {-1.0, -0.5, 0.0, 0.2, 0.4, 1.5}},
-                     {QStringLiteral("candidate"), {-0.3, 0.0, 0.1, 0.2, 0.3}}});
+    errors->setData({ { QStringLiteral("baseline"), { -1.0, -0.5, 0.0, 0.2, 0.4, 1.5 } },
+        { QStringLiteral("candidate"), { -0.3, 0.0, 0.1, 0.2, 0.3 } } });
     charts.push_back(std::move(errors));
     auto diff = std::make_unique<UserDifferenceChart>();
-    diff->setData({-0.2, -0.1, 0.0, 0.0, 0.1, 0.3, 0.25}, core::Metric::Ndcg, QStringLiteral("baseline"),
-                  QStringLiteral("candidate"));
+    diff->setData({ -0.2, -0.1, 0.0, 0.0, 0.1, 0.3, 0.25 }, core::Metric::Ndcg, QStringLiteral("baseline"),
+        QStringLiteral("candidate"));
     charts.push_back(std::move(diff));
     const auto data = sampleDataset();
     core::RunData run;
     run.info.name = "baseline";
     run.hasScores = true;
-    run.scores = {3.5f, 3.9f, 4.1f};
+    run.scores = { 3.5f, 3.9f, 4.1f };
     auto scatter = std::make_unique<ScoreRatingChart>();
     scatter->setData(data, run, core::UserIndex(0));
     charts.push_back(std::move(scatter));
@@ -116,24 +119,9 @@ std::vector<std::unique_ptr<ChartView>> allCharts()
     timeline->setData(data, core::UserIndex(0));
     charts.push_back(std::move(timeline));
     auto loss = std::make_unique<FitLossChart>();
-    loss->setData({{1, 1.2, 1.25}, {2, 0.95, 1.05}, {3, 0.85, 1.0}}, QStringLiteral("als"));
+    loss->setData({ { 1, 1.2, 1.25 }, { 2, 0.95, 1.05 }, { 3, 0.85, 1.0 } }, QStringLiteral("als"));
     charts.push_back(std::move(loss));
     return charts;
-}
-
-int pdfPageCount(const QByteArray& pdf)
-{
-    // Page objects are "/Type /Page" (or "/Type/Page"); "/Pages" is the tree node, not a page.
-    int count = 0;
-    for (const QByteArray& needle : {QByteArray("/Type /Page"), QByteArray("/Type/Page")}) {
-        qsizetype from = 0;
-        while ((from = pdf.indexOf(needle, from)) >= 0) {
-            from += needle.size();
-            if (from < pdf.size() && pdf[from] != 's')
-                ++count;
-        }
-    }
-    return count;
 }
 
 } // namespace
@@ -160,7 +148,7 @@ private slots:
         QVERIFY(dir.isValid());
         for (const auto& chart : allCharts()) {
             const QString path = dir.filePath(chart->fileStem() + QStringLiteral(".png"));
-            const auto status = ChartExporter::savePng(*chart, path, {1000, 640}, 192);
+            const auto status = ChartExporter::savePng(*chart, path, { 1000, 640 }, 192);
             QVERIFY2(status.ok(), status.ok() ? "" : status.error().toString().c_str());
             const QByteArray bytes = test::fileBytes(path);
             // PNG signature (ISO/IEC 15948, section 5.2).
@@ -182,7 +170,7 @@ private slots:
         QTemporaryDir dir;
         for (const auto& chart : allCharts()) {
             const QString path = dir.filePath(chart->fileStem() + QStringLiteral(".svg"));
-            QVERIFY(ChartExporter::saveSvg(*chart, path, {900, 600}).ok());
+            QVERIFY(ChartExporter::saveSvg(*chart, path, { 900, 600 }).ok());
             QFile file(path);
             QVERIFY(file.open(QIODevice::ReadOnly));
             QXmlStreamReader xml(&file);
@@ -206,20 +194,21 @@ private slots:
         QTemporaryDir dir;
         for (const auto& chart : allCharts()) {
             const QString path = dir.filePath(chart->fileStem() + QStringLiteral(".pdf"));
-            QVERIFY(ChartExporter::savePdf(*chart, path, {900, 600}).ok());
+            QVERIFY(ChartExporter::savePdf(*chart, path, { 900, 600 }).ok());
             const QByteArray bytes = test::fileBytes(path);
             QVERIFY(bytes.startsWith("%PDF-"));
-            QCOMPARE(pdfPageCount(bytes), 1);
+            QCOMPARE(test::pdfPageCount(bytes), 1);
         }
     }
 
     void badSizeIsAnError()
     {
         BandErrorChart chart;
-        const auto status = ChartExporter::savePng(chart, QStringLiteral("/nonexistent/x.png"), {0, 10}, 96);
+        const auto status = ChartExporter::savePng(chart, QStringLiteral("/nonexistent/x.png"), { 0, 10 }, 96);
         QVERIFY(!status.ok());
         QCOMPARE(status.error().kind, core::ErrorKind::Usage);
-        const auto unwritable = ChartExporter::savePng(chart, QStringLiteral("/nonexistent/dir/x.png"), {100, 100}, 96);
+        const auto unwritable
+            = ChartExporter::savePng(chart, QStringLiteral("/nonexistent/dir/x.png"), { 100, 100 }, 96);
         QVERIFY(!unwritable.ok());
     }
 
@@ -260,7 +249,7 @@ private slots:
     void csvWholeTable()
     {
         QStandardItemModel model(2, 3);
-        model.setHorizontalHeaderLabels({QStringLiteral("user"), QStringLiteral("note"), QStringLiteral("ndcg")});
+        model.setHorizontalHeaderLabels({ QStringLiteral("user"), QStringLiteral("note"), QStringLiteral("ndcg") });
         model.setData(model.index(0, 0), QStringLiteral("u1"));
         model.setData(model.index(0, 1), QStringLiteral("=HYPERLINK(\"x\")"));
         model.setData(model.index(0, 2), -0.25);
@@ -268,9 +257,10 @@ private slots:
         model.setData(model.index(1, 1), QStringLiteral("two\nlines"));
         model.setData(model.index(1, 2), 1);
         const QString csv = CsvExporter::toCsv(model);
-        QCOMPARE(csv, QStringLiteral("user,note,ndcg\r\n"
-                                     "u1,\"'=HYPERLINK(\"\"x\"\")\",-0.25\r\n"
-                                     "u2,\"two\nlines\",1\r\n"));
+        QCOMPARE(csv,
+            QStringLiteral("user,note,ndcg\r\n"
+                           "u1,\"'=HYPERLINK(\"\"x\"\")\",-0.25\r\n"
+                           "u2,\"two\nlines\",1\r\n"));
         QTemporaryDir dir;
         const QString path = dir.filePath(QStringLiteral("t.csv"));
         QVERIFY(CsvExporter::write(model, path).ok());
@@ -292,8 +282,9 @@ private slots:
         QFETCH(double, scaleMax);
         QFETCH(double, highestScore);
         ScoreRatingChart chart;
-        chart.setData({{scaleMin, scaleMin + 1.0, QStringLiteral("a")}, {scaleMax, highestScore, QStringLiteral("b")}},
-                      QStringLiteral("u1"), QStringLiteral("run"), scaleMin, scaleMax);
+        chart.setData(
+            { { scaleMin, scaleMin + 1.0, QStringLiteral("a") }, { scaleMax, highestScore, QStringLiteral("b") } },
+            QStringLiteral("u1"), QStringLiteral("run"), scaleMin, scaleMax);
         const auto rects = chart.plot()->axisRects();
         QCOMPARE(rects.size(), 1);
         const QCPRange x = rects.front()->axis(QCPAxis::atBottom)->range();
@@ -311,13 +302,13 @@ private slots:
     void fitLossIterationsAreWholeNumbers()
     {
         FitLossChart chart;
-        chart.setData({{1, 1.2, 1.25}, {2, 0.95, 1.05}, {3, 0.85, 1.0}}, QStringLiteral("als"));
+        chart.setData({ { 1, 1.2, 1.25 }, { 2, 0.95, 1.05 }, { 3, 0.85, 1.0 } }, QStringLiteral("als"));
         const auto rects = chart.plot()->axisRects();
         QCOMPARE(rects.size(), 1);
         QCPAxis* x = rects.front()->axis(QCPAxis::atBottom);
         auto ticker = qSharedPointerDynamicCast<QCPAxisTickerText>(x->ticker());
         QVERIFY(ticker);
-        QCOMPARE(ticker->ticks().keys(), (QList<double>{1.0, 2.0, 3.0}));
+        QCOMPARE(ticker->ticks().keys(), (QList<double> { 1.0, 2.0, 3.0 }));
         // Half a step of room on both sides, so the first and last markers are whole.
         QCOMPARE(x->range().lower, 0.5);
         QCOMPARE(x->range().upper, 3.5);
@@ -340,10 +331,12 @@ private slots:
         row.higherIsBetter = false; // e.g. rmse: a rise is worse
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("significant: candidate worse")));
         row.pHolm = 0.0004;
-        QVERIFY2(MeetingPack::verdict(row).contains(QStringLiteral("Holm-adjusted p < 0.001")), qPrintable(MeetingPack::verdict(row)));
+        QVERIFY2(MeetingPack::verdict(row).contains(QStringLiteral("Holm-adjusted p < 0.001")),
+            qPrintable(MeetingPack::verdict(row)));
         row.pHolm = 0.2; // adjusted p decides when given
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("not significant")));
-        QVERIFY2(MeetingPack::verdict(row).contains(QStringLiteral("Holm-adjusted p = 0.200")), qPrintable(MeetingPack::verdict(row)));
+        QVERIFY2(MeetingPack::verdict(row).contains(QStringLiteral("Holm-adjusted p = 0.200")),
+            qPrintable(MeetingPack::verdict(row)));
         row.n = 12;
         QVERIFY(MeetingPack::verdict(row).startsWith(QStringLiteral("too few users")));
     }
@@ -367,18 +360,18 @@ private slots:
         row.pT = 0.3;
         row.pWilcoxon = 0.35;
         cmp.rows.push_back(row);
-        cmp.segments.push_back({QStringLiteral("cold users"), QStringLiteral("ndcg"), 12, 0.1, -0.2, 0.4, 0.5, true});
-        cmp.differences = {-0.1, 0.0, 0.2, 0.05};
+        cmp.segments.push_back({ QStringLiteral("cold users"), QStringLiteral("ndcg"), 12, 0.1, -0.2, 0.4, 0.5, true });
+        cmp.differences = { -0.1, 0.0, 0.2, 0.05 };
         content.comparison = cmp;
-        content.worstUsers.headers = {QStringLiteral("user"), QStringLiteral("ndcg")};
-        content.worstUsers.rows = {{QStringLiteral("u7"), QStringLiteral("0.000")}};
+        content.worstUsers.headers = { QStringLiteral("user"), QStringLiteral("ndcg") };
+        content.worstUsers.rows = { { QStringLiteral("u7"), QStringLiteral("0.000") } };
         PackCaseStudy study;
         study.userId = QStringLiteral("u7");
         study.runName = QStringLiteral("baseline");
         study.why = QStringLiteral("lowest ndcg");
-        study.warnings = {QStringLiteral("Part 3 of a series stands at rank 2 while parts 1 and 2 are unseen.")};
-        study.list.headers = {QStringLiteral("rank"), QStringLiteral("title")};
-        study.list.rows = {{QStringLiteral("1"), QStringLiteral("Title")}};
+        study.warnings = { QStringLiteral("Part 3 of a series stands at rank 2 while parts 1 and 2 are unseen.") };
+        study.list.headers = { QStringLiteral("rank"), QStringLiteral("title") };
+        study.list.rows = { { QStringLiteral("1"), QStringLiteral("Title") } };
         for (int i = 0; i < 3; ++i)
             content.caseStudies.push_back(study);
 
@@ -389,17 +382,19 @@ private slots:
         const QByteArray bytes = test::fileBytes(path);
         QVERIFY(bytes.startsWith("%PDF-"));
         // Summary + charts, comparison, worst users, and one page per case study.
-        const int pages = pdfPageCount(bytes);
+        const int pages = test::pdfPageCount(bytes);
         QVERIFY2(pages >= 7, qPrintable(QString::number(pages)));
 
         const QString pdftotext = QStandardPaths::findExecutable(QStringLiteral("pdftotext"));
         if (pdftotext.isEmpty())
             QSKIP("pdftotext (poppler-utils) not installed; text content not checked");
         QProcess p;
-        p.start(pdftotext, {path, QStringLiteral("-")});
+        p.start(pdftotext, { path, QStringLiteral("-") });
         QVERIFY(p.waitForFinished(60000));
         // Table cells wrap, so compare with line breaks folded into spaces.
-        const QString text = QString::fromUtf8(p.readAllStandardOutput()).simplified().replace(QChar(0xFB01), QStringLiteral("fi")); // pdftotext emits the fi ligature
+        const QString text = QString::fromUtf8(p.readAllStandardOutput())
+                                 .simplified()
+                                 .replace(QChar(0xFB01), QStringLiteral("fi")); // pdftotext emits the fi ligature
         QVERIFY(text.contains(QStringLiteral("not significant")));
         QVERIFY(text.contains(QStringLiteral("too small to judge")));
         QVERIFY(text.contains(QStringLiteral("parts 1 and 2 are unseen")));

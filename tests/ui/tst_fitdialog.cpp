@@ -89,16 +89,8 @@ void TestFitDialog::initTestCase()
     QStandardPaths::setTestModeEnabled(true);
     QVERIFY(m_dir.isValid());
     m_demo = m_dir.filePath(QStringLiteral("film-club.sqlite"));
-    auto demo = test::runCli({ QStringLiteral("demo"), m_demo, QStringLiteral("--quiet") });
-    if (demo.exitCode != 0) {
-        const QString files = m_dir.filePath(QStringLiteral("demo-files"));
-        const auto data
-            = test::runCli({ QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet") });
-        QVERIFY2(data.exitCode == 0, qPrintable(data.err));
-        demo = test::runCli(
-            { QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet") });
-    }
-    QVERIFY2(demo.exitCode == 0, qPrintable(demo.err));
+    const QString demoError = test::buildDemoWorkspace(m_demo, m_dir.filePath(QStringLiteral("demo-files")));
+    QVERIFY2(demoError.isEmpty(), qPrintable(demoError));
     const auto names = runNames(m_demo);
     QVERIFY(!names.empty());
     m_firstRun = QString::fromStdString(names.front());

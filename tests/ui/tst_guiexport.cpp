@@ -52,18 +52,6 @@ using namespace slatewise::ui;
 
 namespace {
 
-bool waitFor(const std::function<bool()>& done, int timeoutMs = 300000)
-{
-    QElapsedTimer clock;
-    clock.start();
-    while (!done()) {
-        if (clock.elapsed() > timeoutMs)
-            return false;
-        QTest::qWait(20);
-    }
-    return true;
-}
-
 /// Width and height from the PNG's IHDR chunk, read from the bytes (PNG specification,
 /// W3C/ISO 15948, sections 5.2 and 11.2.2: 8-byte signature, then IHDR with big-endian
 /// width and height).
@@ -78,22 +66,6 @@ QSize pngHeaderSize(const QByteArray& bytes)
             | static_cast<quint32>(static_cast<quint8>(bytes[at + 3]));
     };
     return { static_cast<int>(be32(16)), static_cast<int>(be32(20)) };
-}
-
-int pdfPageCount(const QByteArray& pdf)
-{
-    // Page objects are "/Type /Page" (or "/Type/Page"); "/Pages" is the tree node, not a page
-    // (PDF 1.7 reference, ISO 32000-1, section 7.7.3).
-    int count = 0;
-    for (const QByteArray& needle : { QByteArray("/Type /Page"), QByteArray("/Type/Page") }) {
-        qsizetype from = 0;
-        while ((from = pdf.indexOf(needle, from)) >= 0) {
-            from += needle.size();
-            if (from < pdf.size() && pdf[from] != 's')
-                ++count;
-        }
-    }
-    return count;
 }
 
 /// RFC 4180 records: comma-separated fields, quoted fields may hold commas, quotes (doubled)
@@ -200,17 +172,8 @@ void TestGuiExport::initTestCase()
     QCoreApplication::setApplicationName(QStringLiteral("tst_guiexport"));
     QVERIFY(m_dir.isValid());
     m_demo = m_dir.filePath(QStringLiteral("film-club.sqlite"));
-    auto demo = test::runCli({ QStringLiteral("demo"), m_demo, QStringLiteral("--quiet") });
-    if (demo.exitCode != 0) {
-        // Without committed demo files, regenerate them first (the same seeded generator).
-        const QString files = m_dir.filePath(QStringLiteral("demo-files"));
-        const auto data
-            = test::runCli({ QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet") });
-        QVERIFY2(data.exitCode == 0, qPrintable(data.err));
-        demo = test::runCli(
-            { QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet") });
-    }
-    QVERIFY2(demo.exitCode == 0, qPrintable(demo.err));
+    const QString demoError = test::buildDemoWorkspace(m_demo, m_dir.filePath(QStringLiteral("demo-files")));
+    QVERIFY2(demoError.isEmpty(), qPrintable(demoError));
 
     m_window = std::make_unique<MainWindow>();
     // Not shown: the offscreen platform warns about size hints of shown windows, and
@@ -218,7 +181,7 @@ void TestGuiExport::initTestCase()
     m_window->resize(1400, 900);
     QVERIFY(m_window->openWorkspace(m_demo));
     auto* document = m_window->document();
-    QVERIFY(waitFor([&] { return !document->task()->isRunning() && document->isFullyLoaded(); }));
+    QVERIFY(test::waitFor([&] { return !document->task()->isRunning() && document->isFullyLoaded(); }));
     const QStringList runs = document->runNames();
     QVERIFY(runs.size() >= 2);
 
@@ -232,7 +195,8 @@ void TestGuiExport::initTestCase()
     QVERIFY(m_window->inspector()->inspection());
     m_window->showScreen(MainWindow::Compare);
     QVERIFY(m_window->compare()->compare(runs[0], runs[1]));
-    QVERIFY(waitFor([&] { return !document->task()->isRunning() && m_window->compare()->comparison() != nullptr; }));
+    QVERIFY(
+        test::waitFor([&] { return !document->task()->isRunning() && m_window->compare()->comparison() != nullptr; }));
 }
 
 void TestGuiExport::cleanupTestCase()
@@ -327,7 +291,7 @@ void TestGuiExport::screenChartsAsSvgAndPdf()
         // Header "%PDF-1.x" and end marker (ISO 32000-1, sections 7.5.2 and 7.5.5).
         QVERIFY2(bytes.startsWith("%PDF-1."), qPrintable(path));
         QVERIFY(bytes.trimmed().endsWith("%%EOF"));
-        QCOMPARE(pdfPageCount(bytes), 1);
+        QCOMPARE(test::pdfPageCount(bytes), 1);
         const int outside = pdfinfoPages(path);
         QVERIFY2(outside == -1 || outside == 1, qPrintable(path)); // poppler parses it as one page
     }
@@ -502,7 +466,7 @@ void TestGuiExport::meetingPackIsMultiPage()
     const QByteArray bytes = test::fileBytes(path);
     QVERIFY(bytes.startsWith("%PDF-1."));
     // Summary, charts, comparison, worst-served users and three case studies.
-    const int pages = pdfPageCount(bytes);
+    const int pages = test::pdfPageCount(bytes);
     QVERIFY2(pages > 1, qPrintable(QString::number(pages)));
     QVERIFY2(pages >= 5, qPrintable(QString::number(pages)));
     // An outside reader agrees (poppler-utils pdfinfo).
@@ -576,7 +540,7 @@ void TestGuiExport::rerankFromTheWindowIsComparedWithItsParent()
     QVERIFY(reranked.wait(300000));
     dialog->close();
     // The window reloads the workspace, then compares the new run with its parent.
-    QVERIFY(waitFor([&] {
+    QVERIFY(test::waitFor([&] {
         const auto shown = m_window->compare()->comparison();
         return !document->task()->isRunning() && shown && shown->candidate == "window-series-order";
     }));

@@ -4,7 +4,6 @@
 // import and an added run and check that nothing was written.
 #include "core/evaluation.h"
 #include "core/syntheticdata.h"
-#include "support/testsupport.h"
 #include "ui/backgroundtask.h"
 #include "ui/comparescreen.h"
 #include "ui/comparisonmodel.h"
@@ -19,8 +18,8 @@
 #include "ui/workspacedocument.h"
 
 #include <QCryptographicHash>
-#include <QElapsedTimer>
 #include <QDir>
+#include <QElapsedTimer>
 #include <QFileInfo>
 #include <QSignalSpy>
 #include <QStandardPaths>
@@ -30,6 +29,8 @@
 #include <cmath>
 #include <functional>
 
+#include "support/testsupport.h"
+
 using namespace slatewise;
 
 namespace {
@@ -38,17 +39,6 @@ QByteArray sha256(const QString& path)
     return QCryptographicHash::hash(test::fileBytes(path), QCryptographicHash::Sha256);
 }
 
-bool waitFor(const std::function<bool()>& done, int timeoutMs = 300000)
-{
-    QElapsedTimer clock;
-    clock.start();
-    while (!done()) {
-        if (clock.elapsed() > timeoutMs)
-            return false;
-        QTest::qWait(20);
-    }
-    return true;
-}
 } // namespace
 
 class TestWorkbench : public QObject {
@@ -71,15 +61,8 @@ void TestWorkbench::initTestCase()
     QStandardPaths::setTestModeEnabled(true); // QSettings go to a test location
     QVERIFY(m_dir.isValid());
     m_demo = m_dir.filePath(QStringLiteral("film-club.sqlite"));
-    auto demo = test::runCli({QStringLiteral("demo"), m_demo, QStringLiteral("--quiet")});
-    if (demo.exitCode != 0) {
-        // Without committed demo files, regenerate them first (the same seeded generator).
-        const QString files = m_dir.filePath(QStringLiteral("demo-files"));
-        const auto data = test::runCli({QStringLiteral("demo-data"), QStringLiteral("--out"), files, QStringLiteral("--quiet")});
-        QVERIFY2(data.exitCode == 0, qPrintable(data.err));
-        demo = test::runCli({QStringLiteral("demo"), m_demo, QStringLiteral("--from"), files, QStringLiteral("--quiet")});
-    }
-    QVERIFY2(demo.exitCode == 0, qPrintable(demo.err));
+    const QString demoError = test::buildDemoWorkspace(m_demo, m_dir.filePath(QStringLiteral("demo-files")));
+    QVERIFY2(demoError.isEmpty(), qPrintable(demoError));
     QVERIFY(QFileInfo::exists(m_demo));
 }
 
@@ -89,7 +72,7 @@ void TestWorkbench::worstUserMatchesExplain()
     window.resize(1400, 900);
     QVERIFY(window.openWorkspace(m_demo));
     auto* document = window.document();
-    QVERIFY(waitFor([&] { return !document->task()->isRunning() && document->isFullyLoaded(); }));
+    QVERIFY(test::waitFor([&] { return !document->task()->isRunning() && document->isFullyLoaded(); }));
     QVERIFY(document->runNames().size() >= 2);
 
     const QString run = document->runNames().front();
@@ -110,7 +93,8 @@ void TestWorkbench::worstUserMatchesExplain()
     auto* inspector = window.inspector();
     QVERIFY(inspector->inspection());
     const QString userId = document->userIdOf(*worst);
-    const auto explain = test::runCli({QStringLiteral("explain"), m_demo, QStringLiteral("--run"), run, QStringLiteral("--user"), userId});
+    const auto explain = test::runCli(
+        { QStringLiteral("explain"), m_demo, QStringLiteral("--run"), run, QStringLiteral("--user"), userId });
     QVERIFY2(explain.exitCode == 0, qPrintable(explain.err));
     const QString text = explain.out;
 
@@ -121,7 +105,10 @@ void TestWorkbench::worstUserMatchesExplain()
     for (int r = 0; r < list->rowCount(); ++r) {
         const QString title = list->data(list->index(r, ui::InspectorListModel::Title)).toString();
         const qsizetype at = text.indexOf(title, position);
-        QVERIFY2(at >= 0, qPrintable(QStringLiteral("list title '%1' (rank %2) not found in order in explain output").arg(title).arg(r + 1)));
+        QVERIFY2(at >= 0,
+            qPrintable(QStringLiteral("list title '%1' (rank %2) not found in order in explain output")
+                           .arg(title)
+                           .arg(r + 1)));
         position = at + title.size();
     }
     // The withheld favourites: each relevant withheld title appears in explain.
@@ -131,7 +118,8 @@ void TestWorkbench::worstUserMatchesExplain()
         if (!withheld->data(withheld->index(r, 0), ui::WithheldModel::RelevantRole).toBool())
             continue;
         const QString title = withheld->data(withheld->index(r, ui::WithheldModel::Title)).toString();
-        QVERIFY2(text.contains(title), qPrintable(QStringLiteral("withheld favourite '%1' missing from explain").arg(title)));
+        QVERIFY2(text.contains(title),
+            qPrintable(QStringLiteral("withheld favourite '%1' missing from explain").arg(title)));
         ++favourites;
     }
     // Every warning sentence appears verbatim, and explain has no sentence the inspector lacks.
@@ -140,7 +128,7 @@ void TestWorkbench::worstUserMatchesExplain()
         QVERIFY2(text.contains(QString::fromStdString(w.message)), w.message.c_str());
     QCOMPARE(inspector->warningTexts().size(), std::max<qsizetype>(1, static_cast<qsizetype>(warnings.size())));
     qInfo("worst user %s: %d list rows, %d favourites, %d warnings", qPrintable(userId), list->rowCount(), favourites,
-          static_cast<int>(warnings.size()));
+        static_cast<int>(warnings.size()));
 
     // Stepping to the next user follows the browse order.
     const auto next = window.users()->neighbour(*worst, +1);
@@ -153,17 +141,21 @@ void TestWorkbench::comparisonScreenFills()
     ui::MainWindow window;
     QVERIFY(window.openWorkspace(m_demo));
     auto* document = window.document();
-    QVERIFY(waitFor([&] { return !document->task()->isRunning() && document->isFullyLoaded(); }));
+    QVERIFY(test::waitFor([&] { return !document->task()->isRunning() && document->isFullyLoaded(); }));
     const QStringList runs = document->runNames();
     QSignalSpy ready(window.compare(), &ui::CompareScreen::comparisonReady);
     QVERIFY(window.compare()->compare(runs[0], runs[1]));
-    QVERIFY(waitFor([&] { return !document->task()->isRunning(); }));
+    QVERIFY(test::waitFor([&] { return !document->task()->isRunning(); }));
     QCOMPARE(ready.count(), 1);
     QVERIFY(window.compare()->comparison());
     QVERIFY(window.compare()->comparisonModel()->rowCount() > 0);
     // Every row states its verdict in words.
     for (int r = 0; r < window.compare()->comparisonModel()->rowCount(); ++r)
-        QVERIFY(!window.compare()->comparisonModel()->data(window.compare()->comparisonModel()->index(r, ui::ComparisonModel::Verdict)).toString().isEmpty());
+        QVERIFY(!window.compare()
+                     ->comparisonModel()
+                     ->data(window.compare()->comparisonModel()->index(r, ui::ComparisonModel::Verdict))
+                     .toString()
+                     .isEmpty());
 }
 
 void TestWorkbench::cancelledImportWritesNothing()
@@ -186,11 +178,11 @@ void TestWorkbench::cancelledImportWritesNothing()
     QVERIFY(dialog.startImport());
     QSignalSpy imported(&dialog, &ui::ImportDialog::imported);
     dialog.cancel();
-    QVERIFY(waitFor([&] { return !dialog.isRunning(); }));
+    QVERIFY(test::waitFor([&] { return !dialog.isRunning(); }));
     QCOMPARE(imported.count(), 0);
     QVERIFY2(!QFileInfo::exists(target), "a cancelled import left a workspace behind");
     // Nothing else was left in the directory either (no temporary files).
-    const auto leftovers = QDir(m_dir.path()).entryList({QStringLiteral("cancelled*")}, QDir::Files);
+    const auto leftovers = QDir(m_dir.path()).entryList({ QStringLiteral("cancelled*") }, QDir::Files);
     QVERIFY2(leftovers.isEmpty(), qPrintable(leftovers.join(QLatin1Char(','))));
 }
 
@@ -206,9 +198,10 @@ void TestWorkbench::cancelledAddRunLeavesWorkspaceUnchanged()
     spec.listLength = 100;
     QVERIFY(core::writeSyntheticFiles(spec, files.toStdString()).ok());
     const QString ws = m_dir.filePath(QStringLiteral("addrun.sqlite"));
-    const auto made = test::runCli({QStringLiteral("import"), ws, QStringLiteral("--catalog"), QDir(files).filePath(QStringLiteral("catalog.csv")),
-                                    QStringLiteral("--train"), QDir(files).filePath(QStringLiteral("train.csv")), QStringLiteral("--test"),
-                                    QDir(files).filePath(QStringLiteral("withheld.csv")), QStringLiteral("--quiet")});
+    const auto made = test::runCli({ QStringLiteral("import"), ws, QStringLiteral("--catalog"),
+        QDir(files).filePath(QStringLiteral("catalog.csv")), QStringLiteral("--train"),
+        QDir(files).filePath(QStringLiteral("train.csv")), QStringLiteral("--test"),
+        QDir(files).filePath(QStringLiteral("withheld.csv")), QStringLiteral("--quiet") });
     QVERIFY2(made.exitCode == 0, qPrintable(made.err));
     const QByteArray before = sha256(ws);
 
@@ -218,12 +211,12 @@ void TestWorkbench::cancelledAddRunLeavesWorkspaceUnchanged()
     dialog.setFile(QStringLiteral("lists"), QDir(files).filePath(QStringLiteral("lists.csv")));
     QVERIFY(dialog.startImport());
     // Cancel once the work is under way, not before it starts.
-    QVERIFY(waitFor([&] { return !dialog.isRunning() || dialog.task()->rate(1.0, 1.0) > 0; }, 60000));
+    QVERIFY(test::waitFor([&] { return !dialog.isRunning() || dialog.task()->rate(1.0, 1.0) > 0; }, 60000));
     dialog.cancel();
-    QVERIFY(waitFor([&] { return !dialog.isRunning(); }));
+    QVERIFY(test::waitFor([&] { return !dialog.isRunning(); }));
     QCOMPARE(sha256(ws), before);
     QVERIFY2(dialog.errorLines().join(QLatin1Char('\n')).contains(QStringLiteral("cancel"), Qt::CaseInsensitive),
-             qPrintable(dialog.errorLines().join(QLatin1Char('\n'))));
+        qPrintable(dialog.errorLines().join(QLatin1Char('\n'))));
 }
 
 QTEST_MAIN(TestWorkbench)
