@@ -21,12 +21,13 @@ enum class ErrorKind {
 /// "not applicable".
 struct Error {
     ErrorKind kind = ErrorKind::InputData;
-    std::string file;
+    // Every member has an initializer, so designated initializers may name only what they need.
+    std::string file{};
     std::int64_t line = 0;
     std::int64_t column = 0;
-    std::string value;
-    std::string message;  ///< what is wrong, e.g. "rating is not a number"
-    std::string expected; ///< what would have been accepted, e.g. "a decimal number from 1 to 5"
+    std::string value{};
+    std::string message{};  ///< what is wrong, e.g. "rating is not a number"
+    std::string expected{}; ///< what would have been accepted, e.g. "a decimal number from 1 to 5"
 
     /// "train.csv:12:3: rating is not a number: 'abc' (expected a decimal number from 1 to 5)"
     std::string toString() const;

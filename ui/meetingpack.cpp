@@ -372,14 +372,11 @@ core::Status MeetingPack::write(const MeetingPackContent& content, const QString
     writer.setTitle(tr("Slatewise meeting pack: %1").arg(content.workspaceName));
     writer.setCreator(QStringLiteral("Slatewise"));
     PageWriter page(writer);
-    if (!page.ok()) {
-        core::Error e;
-        e.kind = core::ErrorKind::Workspace;
-        e.file = path.toStdString();
-        e.message = "could not write the PDF file";
-        e.expected = "a writable file path";
-        return e;
-    }
+    if (!page.ok())
+        return core::Error{.kind = core::ErrorKind::Workspace,
+                           .file = path.toStdString(),
+                           .message = "could not write the PDF file",
+                           .expected = "a writable file path"};
     page.setFooter(tr("Slatewise meeting pack · %1 · %2").arg(content.workspaceName, content.generatedAt));
 
     // 1. What was evaluated and the summary.

@@ -20,12 +20,10 @@ namespace slatewise::ui {
 namespace {
 core::Error folderError(const QString& folder)
 {
-    core::Error e;
-    e.kind = core::ErrorKind::Workspace;
-    e.file = folder.toStdString();
-    e.message = "cannot create the folder";
-    e.expected = "a writable folder";
-    return e;
+    return core::Error{.kind = core::ErrorKind::Workspace,
+                       .file = folder.toStdString(),
+                       .message = "cannot create the folder",
+                       .expected = "a writable folder"};
 }
 
 /// Text for the clipboard: tabs and line breaks inside a cell would split it.
@@ -108,14 +106,11 @@ core::Status ScreenExport::saveChart(
 
 core::Status ScreenExport::saveTable(const QTableView& table, const QString& path)
 {
-    if (!table.model()) {
-        core::Error e;
-        e.kind = core::ErrorKind::Usage;
-        e.file = path.toStdString();
-        e.message = "the table shows nothing";
-        e.expected = "a table with rows";
-        return e;
-    }
+    if (!table.model())
+        return core::Error{.kind = core::ErrorKind::Usage,
+                           .file = path.toStdString(),
+                           .message = "the table shows nothing",
+                           .expected = "a table with rows"};
     return CsvExporter::write(*table.model(), path);
 }
 
