@@ -33,8 +33,8 @@ QString quoteIfNeeded(const QString& text)
 {
     // RFC 4180 section 2: fields with commas, quotes or line breaks are enclosed in double
     // quotes and embedded quotes are doubled.
-    if (!text.contains(QLatin1Char(',')) && !text.contains(QLatin1Char('"')) && !text.contains(QLatin1Char('\n')) &&
-        !text.contains(QLatin1Char('\r')))
+    if (!text.contains(QLatin1Char(',')) && !text.contains(QLatin1Char('"')) && !text.contains(QLatin1Char('\n'))
+        && !text.contains(QLatin1Char('\r')))
         return text;
     QString quoted = text;
     quoted.replace(QLatin1Char('"'), QStringLiteral("\"\""));
@@ -69,14 +69,14 @@ QString CsvExporter::field(const QVariant& value)
     // apostrophe makes them show the text as it is.
     if (!text.isEmpty()) {
         const QChar first = text.front();
-        if (first == QLatin1Char('=') || first == QLatin1Char('+') || first == QLatin1Char('-') ||
-            first == QLatin1Char('@') || first == QLatin1Char('\t') || first == QLatin1Char('\r'))
+        if (first == QLatin1Char('=') || first == QLatin1Char('+') || first == QLatin1Char('-')
+            || first == QLatin1Char('@') || first == QLatin1Char('\t') || first == QLatin1Char('\r'))
             text.prepend(QLatin1Char('\''));
     }
     return quoteIfNeeded(text);
 }
 
-QString CsvExporter::toCsv(const QAbstractItemModel& model, int role)
+std::optional<QString> CsvExporter::toCsv(const QAbstractItemModel& model, int role, const RowProgress& progress)
 {
     QString out;
     const int columns = model.columnCount();
@@ -90,6 +90,8 @@ QString CsvExporter::toCsv(const QAbstractItemModel& model, int role)
     }
     out += lineEnd;
     for (int r = 0; r < rows; ++r) {
+        if (progress && r % 2048 == 0 && !progress(r, rows))
+            return std::nullopt;
         for (int c = 0; c < columns; ++c) {
             if (c > 0)
                 out += QLatin1Char(',');
@@ -100,27 +102,29 @@ QString CsvExporter::toCsv(const QAbstractItemModel& model, int role)
     return out;
 }
 
-core::Status CsvExporter::write(const QAbstractItemModel& model, const QString& path, int role)
+core::Status CsvExporter::write(
+    const QAbstractItemModel& model, const QString& path, int role, const RowProgress& progress)
 {
     QSaveFile file(path);
-    if (!file.open(QIODevice::WriteOnly)) {
-        core::Error e;
-        e.kind = core::ErrorKind::Workspace;
-        e.file = path.toStdString();
-        e.message = file.errorString().toStdString();
-        e.expected = "a writable file path";
-        return e;
+    const auto fileError = [&] {
+        return core::Error { .kind = core::ErrorKind::Workspace,
+            .file = path.toStdString(),
+            .message = file.errorString().toStdString(),
+            .expected = "a writable file path" };
+    };
+    if (!file.open(QIODevice::WriteOnly))
+        return fileError();
+    const auto text = toCsv(model, role, progress);
+    if (!text) {
+        file.cancelWriting();
+        return core::Error { .kind = core::ErrorKind::Cancelled,
+            .file = path.toStdString(),
+            .message = "saving was cancelled; nothing was written" };
     }
-    file.write(toCsv(model, role).toUtf8());
-    if (!file.commit()) {
-        core::Error e;
-        e.kind = core::ErrorKind::Workspace;
-        e.file = path.toStdString();
-        e.message = file.errorString().toStdString();
-        e.expected = "a writable file path";
-        return e;
-    }
-    return core::Done{};
+    file.write(text->toUtf8());
+    if (!file.commit())
+        return fileError();
+    return core::Done {};
 }
 
 } // namespace slatewise::ui

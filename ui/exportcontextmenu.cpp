@@ -5,6 +5,7 @@
 #include "ui/exportsettings.h"
 #include "ui/format.h"
 #include "ui/pngsizedialog.h"
+#include "ui/tablesaveprogress.h"
 
 #include <QAction>
 #include <QApplication>
@@ -152,7 +153,9 @@ void ExportContextMenu::saveTableInteractively(QTableView* table)
         return;
     path = withSuffix(path, QStringLiteral("csv"));
     ExportSettings::rememberPath(path);
-    reportStatus(table->window(), ScreenExport::saveTable(*table, path), QObject::tr("Cannot save the table"));
+    TableSaveProgress progress(table->window());
+    reportStatus(table->window(), ScreenExport::saveTable(*table, path, progress.callback()),
+        QObject::tr("Cannot save the table"));
 }
 
 void ExportContextMenu::copyTable(const QTableView* table)
@@ -164,7 +167,8 @@ bool ExportContextMenu::reportStatus(QWidget* parent, const core::Status& status
 {
     if (status)
         return true;
-    QMessageBox::warning(parent, what, toQ(status.error().toString()));
+    if (status.error().kind != core::ErrorKind::Cancelled) // the user knows they cancelled
+        QMessageBox::warning(parent, what, toQ(status.error().toString()));
     return false;
 }
 

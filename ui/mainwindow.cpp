@@ -15,6 +15,7 @@
 #include "ui/overviewscreen.h"
 #include "ui/pngsizedialog.h"
 #include "ui/rerankdialog.h"
+#include "ui/tablesaveprogress.h"
 #include "ui/usersscreen.h"
 #include "ui/workspacedocument.h"
 #include "ui/workspacereport.h"
@@ -51,10 +52,16 @@ const QString kLastKey = QStringLiteral("workspace/last");
 } // namespace
 
 MainWindow::MainWindow(QWidget* parent)
-    : QMainWindow(parent), m_document(new WorkspaceDocument(this)), m_tabs(new QTabWidget(this)),
-      m_overview(new OverviewScreen(m_document, this)), m_users(new UsersScreen(m_document, this)),
-      m_inspector(new InspectorScreen(m_document, this)), m_compare(new CompareScreen(m_document, this)),
-      m_statusText(new QLabel(this)), m_progress(new QProgressBar(this)), m_cancel(new QPushButton(tr("Cancel"), this))
+    : QMainWindow(parent)
+    , m_document(new WorkspaceDocument(this))
+    , m_tabs(new QTabWidget(this))
+    , m_overview(new OverviewScreen(m_document, this))
+    , m_users(new UsersScreen(m_document, this))
+    , m_inspector(new InspectorScreen(m_document, this))
+    , m_compare(new CompareScreen(m_document, this))
+    , m_statusText(new QLabel(this))
+    , m_progress(new QProgressBar(this))
+    , m_cancel(new QPushButton(tr("Cancel"), this))
 {
     setObjectName(QStringLiteral("SlatewiseMainWindow"));
     setAcceptDrops(true);
@@ -111,12 +118,14 @@ MainWindow::MainWindow(QWidget* parent)
         m_users->setRun(run);
         showScreen(Users);
     });
-    connect(m_users, &UsersScreen::userChosen, this, [this](const QString& run, core::UserIndex user, bool open) {
-        openUser(run, user, open);
-    });
-    m_inspector->setNeighbourFunction([this](core::UserIndex user, int step) { return m_users->neighbour(user, step); });
-    connect(m_inspector, &InspectorScreen::userStepped, this, [this](const QString&, core::UserIndex user) { m_users->selectUser(user); });
-    connect(m_compare, &CompareScreen::openUser, this, [this](const QString& run, core::UserIndex user) { openUser(run, user, true); });
+    connect(m_users, &UsersScreen::userChosen, this,
+        [this](const QString& run, core::UserIndex user, bool open) { openUser(run, user, open); });
+    m_inspector->setNeighbourFunction(
+        [this](core::UserIndex user, int step) { return m_users->neighbour(user, step); });
+    connect(m_inspector, &InspectorScreen::userStepped, this,
+        [this](const QString&, core::UserIndex user) { m_users->selectUser(user); });
+    connect(m_compare, &CompareScreen::openUser, this,
+        [this](const QString& run, core::UserIndex user) { openUser(run, user, true); });
 
     // File names for "Save tables" and the right-click menus.
     m_users->table()->setObjectName(QStringLiteral("users"));
@@ -154,7 +163,7 @@ void MainWindow::buildMenus()
     quit->setShortcut(QKeySequence::Quit);
 
     QMenu* view = menuBar()->addMenu(tr("&View"));
-    const QStringList names{tr("Runs &overview"), tr("&Users"), tr("User &inspector"), tr("&Compare runs")};
+    const QStringList names { tr("Runs &overview"), tr("&Users"), tr("User &inspector"), tr("&Compare runs") };
     for (int i = 0; i < names.size(); ++i) {
         QAction* a = view->addAction(names[i], this, [this, i] { showScreen(static_cast<Screen>(i)); });
         a->setShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)));
@@ -162,15 +171,19 @@ void MainWindow::buildMenus()
 
     m_export = menuBar()->addMenu(tr("&Export"));
     m_export->setToolTipsVisible(true);
-    QAction* pack = m_export->addAction(tr("Write the &meeting pack (PDF)"), this, [this] { writeMeetingPack(defaultMeetingPackPath()); });
+    QAction* pack = m_export->addAction(
+        tr("Write the &meeting pack (PDF)"), this, [this] { writeMeetingPack(defaultMeetingPackPath()); });
     pack->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_M));
     pack->setToolTip(tr("One PDF for the meeting: run summary, charts, comparison, worst-served users and three case "
                         "studies. Written to the last export folder."));
     m_export->addAction(tr("Write the meeting pack &to…"), this, &MainWindow::meetingPackAs);
     m_export->addSeparator();
-    m_export->addAction(tr("Save this screen's charts as &PNG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Png); });
-    m_export->addAction(tr("Save this screen's charts as &SVG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Svg); });
-    m_export->addAction(tr("Save this screen's charts as P&DF…"), this, [this] { exportChartsDialog(ScreenExport::Format::Pdf); });
+    m_export->addAction(
+        tr("Save this screen's charts as &PNG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Png); });
+    m_export->addAction(
+        tr("Save this screen's charts as &SVG…"), this, [this] { exportChartsDialog(ScreenExport::Format::Svg); });
+    m_export->addAction(
+        tr("Save this screen's charts as P&DF…"), this, [this] { exportChartsDialog(ScreenExport::Format::Pdf); });
     m_export->addAction(tr("Save this screen's &tables as CSV…"), this, &MainWindow::exportTablesDialog);
     m_export->addSeparator();
     QAction* hint = m_export->addAction(tr("Right-click a chart or table to save just that one"));
@@ -180,9 +193,9 @@ void MainWindow::buildMenus()
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     help->addAction(tr("&About Slatewise"), this, [this] {
         QMessageBox::about(this, tr("About Slatewise"),
-                           tr("<b>Slatewise</b> judges recommendation runs per user: accuracy, ranking and "
-                              "beyond-accuracy measures, the worst-served users with plain warnings, and honest "
-                              "comparisons between runs. Hover a column header for the metric's formula."));
+            tr("<b>Slatewise</b> judges recommendation runs per user: accuracy, ranking and "
+               "beyond-accuracy measures, the worst-served users with plain warnings, and honest "
+               "comparisons between runs. Hover a column header for the metric's formula."));
     });
     rebuildRecent();
 }
@@ -202,15 +215,16 @@ QWidget* MainWindow::screenWidget(Screen screen) const
     return m_tabs->widget(static_cast<int>(screen));
 }
 
-core::Result<QStringList> MainWindow::saveScreenCharts(const QString& folder, ScreenExport::Format format,
-                                                       const ExportSettings::Png& png)
+core::Result<QStringList> MainWindow::saveScreenCharts(
+    const QString& folder, ScreenExport::Format format, const ExportSettings::Png& png)
 {
     return ScreenExport::saveCharts(screenWidget(currentScreen()), folder, format, png);
 }
 
 core::Result<QStringList> MainWindow::saveScreenTables(const QString& folder)
 {
-    return ScreenExport::saveTables(screenWidget(currentScreen()), folder);
+    TableSaveProgress progress(this);
+    return ScreenExport::saveTables(screenWidget(currentScreen()), folder, progress.callback());
 }
 
 void MainWindow::exportChartsDialog(ScreenExport::Format format)
@@ -223,7 +237,8 @@ void MainWindow::exportChartsDialog(ScreenExport::Format format)
         png = size.options();
         ExportSettings::setPng(png);
     }
-    const QString folder = QFileDialog::getExistingDirectory(this, tr("Folder for this screen's charts"), ExportSettings::lastFolder());
+    const QString folder
+        = QFileDialog::getExistingDirectory(this, tr("Folder for this screen's charts"), ExportSettings::lastFolder());
     if (folder.isEmpty())
         return;
     ExportSettings::rememberPath(folder);
@@ -237,13 +252,17 @@ void MainWindow::exportChartsDialog(ScreenExport::Format format)
 
 void MainWindow::exportTablesDialog()
 {
-    const QString folder = QFileDialog::getExistingDirectory(this, tr("Folder for this screen's tables"), ExportSettings::lastFolder());
+    const QString folder
+        = QFileDialog::getExistingDirectory(this, tr("Folder for this screen's tables"), ExportSettings::lastFolder());
     if (folder.isEmpty())
         return;
     ExportSettings::rememberPath(folder);
     const auto written = saveScreenTables(folder);
     if (!written) {
-        QMessageBox::warning(this, tr("Cannot save the tables"), toQ(written.error().toString()));
+        if (written.error().kind == core::ErrorKind::Cancelled)
+            m_statusText->setText(tr("Saving the tables was cancelled; the table being saved was not written."));
+        else
+            QMessageBox::warning(this, tr("Cannot save the tables"), toQ(written.error().toString()));
         return;
     }
     m_statusText->setText(tr("Saved %n table(s) as CSV to %1", nullptr, static_cast<int>(written->size())).arg(folder));
@@ -252,7 +271,8 @@ void MainWindow::exportTablesDialog()
 QString MainWindow::defaultMeetingPackPath() const
 {
     const QDir folder(ExportSettings::lastFolder());
-    const QString name = m_document->isOpen() ? QFileInfo(m_document->path()).completeBaseName() : QStringLiteral("slatewise");
+    const QString name
+        = m_document->isOpen() ? QFileInfo(m_document->path()).completeBaseName() : QStringLiteral("slatewise");
     const QString stem = QStringLiteral("%1-meeting-pack-%2").arg(name, QDate::currentDate().toString(Qt::ISODate));
     QString path = folder.filePath(stem + QStringLiteral(".pdf"));
     for (int n = 2; QFileInfo::exists(path); ++n)
@@ -262,7 +282,8 @@ QString MainWindow::defaultMeetingPackPath() const
 
 void MainWindow::meetingPackAs()
 {
-    QString path = QFileDialog::getSaveFileName(this, tr("Save the meeting pack"), defaultMeetingPackPath(), tr("PDF document (*.pdf)"));
+    QString path = QFileDialog::getSaveFileName(
+        this, tr("Save the meeting pack"), defaultMeetingPackPath(), tr("PDF document (*.pdf)"));
     if (path.isEmpty())
         return;
     if (!path.endsWith(QStringLiteral(".pdf"), Qt::CaseInsensitive))
@@ -273,8 +294,9 @@ void MainWindow::meetingPackAs()
 bool MainWindow::writeMeetingPack(const QString& path)
 {
     if (!m_document->isOpen() || m_document->task()->isRunning()) {
-        m_statusText->setText(m_document->isOpen() ? tr("Wait for the running job to finish, then write the meeting pack.")
-                                                   : tr("Open a workspace first."));
+        m_statusText->setText(m_document->isOpen()
+                ? tr("Wait for the running job to finish, then write the meeting pack.")
+                : tr("Open a workspace first."));
         return false;
     }
     // The comparison shown on the Compare screen, else the first two runs.
@@ -328,7 +350,8 @@ bool MainWindow::writeMeetingPack(const QString& path)
                 error = tr("Nothing to write.");
             }
             if (!error.isEmpty() && !outcome->cancelled) {
-                m_statusText->setText(tr("Could not write the meeting pack: %1").arg(error.section(QLatin1Char('\n'), 0, 0)));
+                m_statusText->setText(
+                    tr("Could not write the meeting pack: %1").arg(error.section(QLatin1Char('\n'), 0, 0)));
                 if (isVisible())
                     QMessageBox::warning(this, tr("Cannot write the meeting pack"), error);
             } else if (error.isEmpty()) {
@@ -362,8 +385,8 @@ void MainWindow::openUser(const QString& runName, core::UserIndex user, bool sho
 
 void MainWindow::openDialog()
 {
-    const QString path = QFileDialog::getOpenFileName(this, tr("Open workspace"), QFileInfo(m_document->path()).absolutePath(),
-                                                      tr("Slatewise workspace (*.sqlite);;All files (*)"));
+    const QString path = QFileDialog::getOpenFileName(this, tr("Open workspace"),
+        QFileInfo(m_document->path()).absolutePath(), tr("Slatewise workspace (*.sqlite);;All files (*)"));
     if (!path.isEmpty())
         openWorkspace(path);
 }
@@ -433,7 +456,8 @@ void MainWindow::updateTitle()
     if (!open) {
         setWindowTitle(tr("Slatewise"));
         if (!m_document->task()->isRunning())
-            m_statusText->setText(tr("No workspace open — File ▸ Open workspace… or drop a .sqlite file on the window."));
+            m_statusText->setText(
+                tr("No workspace open — File ▸ Open workspace… or drop a .sqlite file on the window."));
         return;
     }
     setWindowTitle(tr("%1 — Slatewise").arg(QFileInfo(m_document->path()).fileName()));

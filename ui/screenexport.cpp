@@ -20,10 +20,10 @@ namespace slatewise::ui {
 namespace {
 core::Error folderError(const QString& folder)
 {
-    return core::Error{.kind = core::ErrorKind::Workspace,
-                       .file = folder.toStdString(),
-                       .message = "cannot create the folder",
-                       .expected = "a writable folder"};
+    return core::Error { .kind = core::ErrorKind::Workspace,
+        .file = folder.toStdString(),
+        .message = "cannot create the folder",
+        .expected = "a writable folder" };
 }
 
 /// Text for the clipboard: tabs and line breaks inside a cell would split it.
@@ -104,14 +104,15 @@ core::Status ScreenExport::saveChart(
     return status;
 }
 
-core::Status ScreenExport::saveTable(const QTableView& table, const QString& path)
+core::Status ScreenExport::saveTable(
+    const QTableView& table, const QString& path, const CsvExporter::RowProgress& progress)
 {
     if (!table.model())
-        return core::Error{.kind = core::ErrorKind::Usage,
-                           .file = path.toStdString(),
-                           .message = "the table shows nothing",
-                           .expected = "a table with rows"};
-    return CsvExporter::write(*table.model(), path);
+        return core::Error { .kind = core::ErrorKind::Usage,
+            .file = path.toStdString(),
+            .message = "the table shows nothing",
+            .expected = "a table with rows" };
+    return CsvExporter::write(*table.model(), path, Qt::DisplayRole, progress);
 }
 
 core::Result<QStringList> ScreenExport::saveCharts(
@@ -136,7 +137,8 @@ core::Result<QStringList> ScreenExport::saveCharts(
     return written;
 }
 
-core::Result<QStringList> ScreenExport::saveTables(const QWidget* screen, const QString& folder)
+core::Result<QStringList> ScreenExport::saveTables(
+    const QWidget* screen, const QString& folder, const CsvExporter::RowProgress& progress)
 {
     if (!QDir().mkpath(folder))
         return folderError(folder);
@@ -144,7 +146,7 @@ core::Result<QStringList> ScreenExport::saveTables(const QWidget* screen, const 
     const auto views = tables(screen);
     for (int i = 0; i < views.size(); ++i) {
         const QString path = QDir(folder).filePath(tableStem(*views[i], i) + QStringLiteral(".csv"));
-        const auto status = saveTable(*views[i], path);
+        const auto status = saveTable(*views[i], path, progress);
         if (!status)
             return status.errors();
         written << path;

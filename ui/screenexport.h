@@ -2,6 +2,7 @@
 #pragma once
 
 #include "core/error.h"
+#include "ui/csvexporter.h"
 #include "ui/exportsettings.h"
 
 #include <QList>
@@ -40,13 +41,15 @@ public:
     static core::Status saveChart(
         ChartView& chart, const QString& path, Format format, const ExportSettings::Png& png = {});
     /// One table to `path` as CSV, rows in the order shown.
-    static core::Status saveTable(const QTableView& table, const QString& path);
+    static core::Status saveTable(
+        const QTableView& table, const QString& path, const CsvExporter::RowProgress& progress = {});
 
     /// Every chart of `screen` into `folder` as "<stem>.<suffix>"; returns the files written.
     static core::Result<QStringList> saveCharts(
         const QWidget* screen, const QString& folder, Format format, const ExportSettings::Png& png = {});
     /// Every table of `screen` into `folder` as "<stem>.csv"; returns the files written.
-    static core::Result<QStringList> saveTables(const QWidget* screen, const QString& folder);
+    static core::Result<QStringList> saveTables(
+        const QWidget* screen, const QString& folder, const CsvExporter::RowProgress& progress = {});
 
     /// The selected rows of `table` (every row when nothing is selected) as tab-separated
     /// text with a header line, for the clipboard.

@@ -256,7 +256,7 @@ private slots:
         model.setData(model.index(1, 0), QStringLiteral("u2"));
         model.setData(model.index(1, 1), QStringLiteral("two\nlines"));
         model.setData(model.index(1, 2), 1);
-        const QString csv = CsvExporter::toCsv(model);
+        const QString csv = CsvExporter::toCsv(model).value();
         QCOMPARE(csv,
             QStringLiteral("user,note,ndcg\r\n"
                            "u1,\"'=HYPERLINK(\"\"x\"\")\",-0.25\r\n"
@@ -264,6 +264,17 @@ private slots:
         QTemporaryDir dir;
         const QString path = dir.filePath(QStringLiteral("t.csv"));
         QVERIFY(CsvExporter::write(model, path).ok());
+        QCOMPARE(test::fileBytes(path), csv.toUtf8());
+
+        // A cancelled save reports it and leaves the file that was there untouched.
+        int calls = 0;
+        const auto cancelled = CsvExporter::write(model, path, Qt::DisplayRole, [&calls](int done, int total) {
+            ++calls;
+            return done < 0 || total < 0; // false: cancel at the first report
+        });
+        QVERIFY(!cancelled.ok());
+        QCOMPARE(static_cast<int>(cancelled.error().kind), static_cast<int>(core::ErrorKind::Cancelled));
+        QCOMPARE(calls, 1);
         QCOMPARE(test::fileBytes(path), csv.toUtf8());
     }
 
