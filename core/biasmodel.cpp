@@ -3,18 +3,16 @@
 
 #include "core/runassembly.h"
 
-#include <nlohmann/json.hpp>
-
 #include <algorithm>
 #include <chrono>
 #include <cmath>
+#include <nlohmann/json.hpp>
 #include <numeric>
 
 namespace slatewise::core {
 
 Result<BiasModel> BiasModel::fit(const Dataset& data, const TrainMatrix& train, const ModelSettings& settings,
-                                 const Progress& progress, const IterationCallback& onIteration, double progressFrom,
-                                 double progressTo)
+    const Progress& progress, const IterationCallback& onIteration, double progressFrom, double progressTo)
 {
     BiasModel m;
     m.globalMean = train.globalMean;
@@ -27,28 +25,29 @@ Result<BiasModel> BiasModel::fit(const Dataset& data, const TrainMatrix& train, 
         const auto start = std::chrono::steady_clock::now();
         const double at = progressFrom + span * it;
         std::vector<double> change(workerCount(), 0.0);
-        bool ok = RunAssembly::forEach(train.items, progress, "bias: item biases", at, at + span / 2,
-                                       [&](std::size_t i, unsigned w) {
-            const auto users = train.usersOf(static_cast<std::uint32_t>(i));
-            const auto ratings = train.itemRatingsOf(static_cast<std::uint32_t>(i));
-            double sum = 0.0;
-            for (std::size_t k = 0; k < users.size(); ++k)
-                sum += ratings[k] - mu - m.userBias[users[k]];
-            const double b = sum / (settings.biasItemLambda + static_cast<double>(users.size()));
-            change[w] = std::max(change[w], std::abs(b - m.itemBias[i]));
-            m.itemBias[i] = b;
-        });
-        ok = ok && RunAssembly::forEach(train.users, progress, "bias: user biases", at + span / 2, at + span,
-                                        [&](std::size_t u, unsigned w) {
-            const auto items = train.itemsOf(static_cast<std::uint32_t>(u));
-            const auto ratings = train.ratingsOf(static_cast<std::uint32_t>(u));
-            double sum = 0.0;
-            for (std::size_t k = 0; k < items.size(); ++k)
-                sum += ratings[k] - mu - m.itemBias[items[k]];
-            const double b = sum / (settings.biasUserLambda + static_cast<double>(items.size()));
-            change[w] = std::max(change[w], std::abs(b - m.userBias[u]));
-            m.userBias[u] = b;
-        });
+        bool ok = RunAssembly::forEach(
+            train.items, progress, "bias: item biases", at, at + span / 2, [&](std::size_t i, unsigned w) {
+                const auto users = train.usersOf(static_cast<std::uint32_t>(i));
+                const auto ratings = train.itemRatingsOf(static_cast<std::uint32_t>(i));
+                double sum = 0.0;
+                for (std::size_t k = 0; k < users.size(); ++k)
+                    sum += ratings[k] - mu - m.userBias[users[k]];
+                const double b = sum / (settings.biasItemLambda + static_cast<double>(users.size()));
+                change[w] = std::max(change[w], std::abs(b - m.itemBias[i]));
+                m.itemBias[i] = b;
+            });
+        ok = ok
+            && RunAssembly::forEach(
+                train.users, progress, "bias: user biases", at + span / 2, at + span, [&](std::size_t u, unsigned w) {
+                    const auto items = train.itemsOf(static_cast<std::uint32_t>(u));
+                    const auto ratings = train.ratingsOf(static_cast<std::uint32_t>(u));
+                    double sum = 0.0;
+                    for (std::size_t k = 0; k < items.size(); ++k)
+                        sum += ratings[k] - mu - m.itemBias[items[k]];
+                    const double b = sum / (settings.biasUserLambda + static_cast<double>(items.size()));
+                    change[w] = std::max(change[w], std::abs(b - m.userBias[u]));
+                    m.userBias[u] = b;
+                });
         if (!ok)
             return RunAssembly::cancelled("fitting the bias baseline");
         m.iterationsRun = it + 1;
@@ -65,7 +64,8 @@ Result<BiasModel> BiasModel::fit(const Dataset& data, const TrainMatrix& train, 
                 const auto items = train.itemsOf(u);
                 const auto ratings = train.ratingsOf(u);
                 for (std::size_t k = 0; k < items.size(); ++k) {
-                    const double e = RunAssembly::clamp(data, settings.clipToScale, m.predict(u, items[k])) - ratings[k];
+                    const double e
+                        = RunAssembly::clamp(data, settings.clipToScale, m.predict(u, items[k])) - ratings[k];
                     sq += e * e;
                 }
             }
@@ -78,34 +78,22 @@ Result<BiasModel> BiasModel::fit(const Dataset& data, const TrainMatrix& train, 
     return m;
 }
 
-Result<RunData> BiasModel::toRun(const Dataset& data, const TrainMatrix& train, const ModelSettings& settings,
-                                 const Progress& progress) const
+Result<RunData> BiasModel::toRun(
+    const Dataset& data, const TrainMatrix& train, const ModelSettings& settings, const Progress& progress) const
 {
     auto scores = RunAssembly::scoreWithheld(data, settings.clipToScale, progress, 0.7, 0.8,
-                                             [this](std::uint32_t u, std::uint32_t i) { return predict(u, i); });
+        [this](std::uint32_t u, std::uint32_t i) { return predict(u, i); });
     if (progress.cancelled())
         return RunAssembly::cancelled("fitting the bias baseline");
 
-    std::vector<std::uint32_t> order(train.items);
-    std::iota(order.begin(), order.end(), 0u);
-    std::stable_sort(order.begin(), order.end(),
-                     [this](std::uint32_t a, std::uint32_t b) { return itemBias[a] > itemBias[b]; });
-    const std::size_t n = static_cast<std::size_t>(std::max(0, settings.listLength));
-    std::vector<std::vector<ListEntry>> lists(data.userCount());
-    const bool ok = RunAssembly::forEach(data.userCount(), progress, "bias: top-N lists", 0.8, 1.0,
-                                         [&](std::size_t u, unsigned) {
-        auto& list = lists[u];
-        list.reserve(n);
-        for (std::uint32_t i : order) {
-            if (list.size() >= n)
-                break;
-            if (train.seen(static_cast<std::uint32_t>(u), i))
-                continue;
-            list.push_back({ItemIndex(i), static_cast<float>(RunAssembly::clamp(
-                                              data, settings.clipToScale, predict(static_cast<std::uint32_t>(u), i)))});
-        }
-    });
-    if (!ok)
+    // r̂_ui = μ + b_u + b_i ranks items by b_i for every user.
+    const auto order = RunAssembly::itemsByDescending(train.items, [this](std::uint32_t i) { return itemBias[i]; });
+    auto lists = RunAssembly::listsInSharedOrder(data, train, order,
+        static_cast<std::size_t>(std::max(0, settings.listLength)), progress, "bias: top-N lists", 0.8, 1.0,
+        [&](std::uint32_t u, std::uint32_t i) {
+            return RunAssembly::clamp(data, settings.clipToScale, predict(u, i));
+        });
+    if (progress.cancelled())
         return RunAssembly::cancelled("fitting the bias baseline");
     return RunAssembly::finish(data, std::move(scores), std::move(lists));
 }

@@ -147,10 +147,8 @@ Result<RunData> ItemKnnModel::toRun(
             for (const Neighbour& nb : neighboursOf(i))
                 held[cursor[nb.item]++] = { i, nb.similarity };
     }
-    std::vector<std::uint32_t> byBias(train.items);
-    std::iota(byBias.begin(), byBias.end(), 0u);
-    std::stable_sort(byBias.begin(), byBias.end(),
-        [this](std::uint32_t a, std::uint32_t b) { return baseline.itemBias[a] > baseline.itemBias[b]; });
+    const auto byBias
+        = RunAssembly::itemsByDescending(train.items, [this](std::uint32_t i) { return baseline.itemBias[i]; });
 
     struct Sums {
         double num = 0.0;

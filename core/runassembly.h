@@ -6,11 +6,13 @@
 #include "core/parallel.h"
 #include "core/progress.h"
 #include "core/run.h"
+#include "core/trainmatrix.h"
 
 #include <algorithm>
 #include <atomic>
 #include <cmath>
 #include <cstdint>
+#include <numeric>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -98,6 +100,41 @@ public:
         for (double s : sums)
             total += s;
         return data.withheld.size() == 0 ? std::nan("") : std::sqrt(total / static_cast<double>(data.withheld.size()));
+    }
+
+    /// Item indices [0, count) ordered by key(i), largest first; ties keep index order.
+    template <typename Key> static std::vector<std::uint32_t> itemsByDescending(std::uint32_t count, Key&& key)
+    {
+        std::vector<std::uint32_t> order(count);
+        std::iota(order.begin(), order.end(), 0u);
+        std::stable_sort(
+            order.begin(), order.end(), [&key](std::uint32_t a, std::uint32_t b) { return key(a) > key(b); });
+        return order;
+    }
+
+    /// Lists for a model whose ranking is the same for every user (popularity, item bias):
+    /// each user gets the first n items of `order` that are not in their train history,
+    /// scored by score(user, item). Empty when cancelled.
+    template <typename Score>
+    static std::vector<std::vector<ListEntry>> listsInSharedOrder(const Dataset& data, const TrainMatrix& train,
+        const std::vector<std::uint32_t>& order, std::size_t n, const Progress& progress, std::string_view stage,
+        double from, double to, Score&& score)
+    {
+        std::vector<std::vector<ListEntry>> lists(data.userCount());
+        const bool ok = forEach(data.userCount(), progress, stage, from, to, [&](std::size_t user, unsigned) {
+            const auto u = static_cast<std::uint32_t>(user);
+            auto& list = lists[user];
+            list.reserve(n);
+            for (std::uint32_t i : order) {
+                if (list.size() >= n)
+                    break;
+                if (!train.seen(u, i))
+                    list.push_back({ ItemIndex(i), static_cast<float>(score(u, i)) });
+            }
+        });
+        if (!ok)
+            return {};
+        return lists;
     }
 
     static double clamp(const Dataset& data, bool clip, double v)
