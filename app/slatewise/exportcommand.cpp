@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
+#include "app/slatewise/evalsettingsargs.h"
+#include "app/slatewise/offscreenapp.h"
 #include "app/slatewise/reporting.h"
 
 #include <iostream>
@@ -12,7 +14,6 @@
 #include "ui/csvexporter.h"
 #include "ui/workspacereport.h"
 
-#include <QApplication>
 #include <QDir>
 #include <QStandardItemModel>
 #endif
@@ -22,20 +23,21 @@ namespace slatewise::cli {
 namespace {
 const CommandSpec& exportSpec()
 {
-    static const CommandSpec spec{
-        "export",
-        "WORKSPACE --out DIR [--run NAME]... [--width PX] [--height PX] [--dpi N]",
-        "Evaluates the runs (all runs when no --run is given) and writes every chart as PNG, SVG and PDF "
-        "into DIR, plus the tables (run summary, error by rating, k-curves, warning shares, worst-served "
-        "users) as CSV. Needs no display.",
-        1,
-        {{"out", "DIR", "directory to write into (created when missing)"},
-         {"run", "NAME", "a run to include (repeat for several; default: all runs)", true},
-         {"width", "PX", "PNG width in pixels (default 1600)"},
-         {"height", "PX", "PNG height in pixels (default 1000)"},
-         {"dpi", "N", "PNG resolution; text keeps its physical size (default 144)"},
-         {"k", "N", "list length for the ranking measures (default 10)"},
-         {"relevant-at", "X", "withheld rating from which an item is relevant (default 4.0)"}}};
+    static const CommandSpec spec = [] {
+        CommandSpec c { "export", "WORKSPACE --out DIR [--run NAME]... [--width PX] [--height PX] [--dpi N]",
+            "Evaluates the runs (all runs when no --run is given) and writes every chart as PNG, SVG and PDF "
+            "into DIR, plus the tables (run summary, error by rating, k-curves, warning shares, worst-served "
+            "users) as CSV. Needs no display.",
+            1,
+            { { "out", "DIR", "directory to write into (created when missing)" },
+                { "run", "NAME", "a run to include (repeat for several; default: all runs)", true },
+                { "width", "PX", "PNG width in pixels (default 1600)" },
+                { "height", "PX", "PNG height in pixels (default 1000)" },
+                { "dpi", "N", "PNG resolution; text keeps its physical size (default 144)" } } };
+        for (auto& o : evalSettingsOptions())
+            c.options.push_back(o);
+        return c;
+    }();
     return spec;
 }
 } // namespace
@@ -51,36 +53,22 @@ int exportCommand(const std::vector<std::string>& argv)
     const auto width = args->integer("width", 1600, error);
     const auto height = width ? args->integer("height", 1000, error) : std::nullopt;
     const auto dpi = height ? args->integer("dpi", 144, error) : std::nullopt;
-    const auto k = dpi ? args->integer("k", 10, error) : std::nullopt;
-    const auto relevantAt = k ? args->number("relevant-at", 4.0, error) : std::nullopt;
-    if (!relevantAt || !args->has("out")) {
-        std::cerr << "slatewise export: " << (error.empty() ? std::string("--out DIR is required") : error) << "\n";
-        return ExitUsage;
-    }
-    if (*width < 16 || *height < 16 || *width > 20000 || *height > 20000 || *dpi < 24 || *dpi > 1200 || *k < 1) {
-        std::cerr << "slatewise export: --width and --height must be 16..20000 pixels, --dpi 24..1200, --k at least 1\n";
-        return ExitUsage;
-    }
+    const auto settings = dpi ? evalSettingsFromArgs(*args, error) : std::nullopt;
+    if (!settings || !args->has("out"))
+        return usageFailure("export", error.empty() ? std::string("--out DIR is required") : error);
+    if (*width < 16 || *height < 16 || *width > 20000 || *height > 20000 || *dpi < 24 || *dpi > 1200)
+        return usageFailure("export", "--width and --height must be 16..20000 pixels, --dpi 24..1200");
 
-    // Headless: no display is needed or used.
-    qputenv("QT_QPA_PLATFORM", "offscreen");
-    static int qtArgc = 1;
-    static char qtName[] = "slatewise";
-    static char* qtArgv[] = {qtName, nullptr};
-    QApplication app(qtArgc, qtArgv);
-
-    core::EvalSettings settings;
-    settings.k = static_cast<std::int32_t>(*k);
-    settings.relevantAt = *relevantAt;
-    auto report = ui::WorkspaceReport::load(args->positionals().front(), args->values("run"), settings);
+    const OffscreenApp app;
+    auto report = ui::WorkspaceReport::load(args->positionals().front(), args->values("run"), *settings);
     if (!report)
         return printErrors("export", report.errors());
 
     const QString out = QString::fromStdString(args->value("out"));
     if (!QDir().mkpath(out)) {
-        core::Error e{core::ErrorKind::Workspace, args->value("out"), 0, 0, {}, "cannot create the output directory",
-                      "a writable directory"};
-        return printErrors("export", {e});
+        core::Error e { core::ErrorKind::Workspace, args->value("out"), 0, 0, {}, "cannot create the output directory",
+            "a writable directory" };
+        return printErrors("export", { e });
     }
     const QDir dir(out);
     const QSize pixels(static_cast<int>(*width), static_cast<int>(*height));
@@ -91,9 +79,9 @@ int exportCommand(const std::vector<std::string>& argv)
     for (const auto& chart : report->charts()) {
         const QString stem = dir.filePath(chart->fileStem());
         for (const auto& status :
-             {ui::ChartExporter::savePng(*chart, stem + QStringLiteral(".png"), pixels, static_cast<int>(*dpi)),
-              ui::ChartExporter::saveSvg(*chart, stem + QStringLiteral(".svg"), logical),
-              ui::ChartExporter::savePdf(*chart, stem + QStringLiteral(".pdf"), logical)}) {
+            { ui::ChartExporter::savePng(*chart, stem + QStringLiteral(".png"), pixels, static_cast<int>(*dpi)),
+                ui::ChartExporter::saveSvg(*chart, stem + QStringLiteral(".svg"), logical),
+                ui::ChartExporter::savePdf(*chart, stem + QStringLiteral(".pdf"), logical) }) {
             if (!status)
                 return printErrors("export", status.errors());
             ++files;

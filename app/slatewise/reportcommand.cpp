@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
+#include "app/slatewise/evalsettingsargs.h"
+#include "app/slatewise/offscreenapp.h"
 #include "app/slatewise/reporting.h"
 
 #include <algorithm>
@@ -11,7 +13,6 @@
 #include "ui/meetingpack.h"
 #include "ui/workspacereport.h"
 
-#include <QApplication>
 #include <QFileInfo>
 #endif
 
@@ -20,19 +21,19 @@ namespace slatewise::cli {
 namespace {
 const CommandSpec& reportSpec()
 {
-    static const CommandSpec spec{
-        "report",
-        "WORKSPACE --out FILE.pdf [--base A --candidate B] [--run NAME]...",
-        "Writes the meeting pack: a multi-page A4 PDF with the run summary, the error-by-rating chart, the "
-        "k-curves, warning prevalence, the comparison of B against A (when both are given), the ten "
-        "worst-served users and three user case studies. Needs no display.",
-        1,
-        {{"out", "FILE", "the PDF to write"},
-         {"base", "NAME", "the run to compare against"},
-         {"candidate", "NAME", "the run being judged; its worst-served users are the case studies"},
-         {"run", "NAME", "a run to include (repeat for several; default: all runs)", true},
-         {"k", "N", "list length for the ranking measures (default 10)"},
-         {"relevant-at", "X", "withheld rating from which an item is relevant (default 4.0)"}}};
+    static const CommandSpec spec = [] {
+        CommandSpec c { "report", "WORKSPACE --out FILE.pdf [--base A --candidate B] [--run NAME]...",
+            "Writes the meeting pack: a multi-page A4 PDF with the run summary, the error-by-rating chart, the "
+            "k-curves, warning prevalence, the comparison of B against A (when both are given), the ten "
+            "worst-served users and three user case studies. Needs no display.",
+            1,
+            { { "out", "FILE", "the PDF to write" }, { "base", "NAME", "the run to compare against" },
+                { "candidate", "NAME", "the run being judged; its worst-served users are the case studies" },
+                { "run", "NAME", "a run to include (repeat for several; default: all runs)", true } } };
+        for (auto& o : evalSettingsOptions())
+            c.options.push_back(o);
+        return c;
+    }();
     return spec;
 }
 } // namespace
@@ -45,38 +46,21 @@ int reportCommand(const std::vector<std::string>& argv)
     if (!args)
         return exitCode;
     std::string error;
-    const auto k = args->integer("k", 10, error);
-    const auto relevantAt = k ? args->number("relevant-at", 4.0, error) : std::nullopt;
-    if (!relevantAt || !args->has("out")) {
-        std::cerr << "slatewise report: " << (error.empty() ? std::string("--out FILE.pdf is required") : error) << "\n";
-        return ExitUsage;
-    }
-    if (args->has("base") != args->has("candidate")) {
-        std::cerr << "slatewise report: give both --base and --candidate, or neither\n";
-        return ExitUsage;
-    }
-    if (*k < 1) {
-        std::cerr << "slatewise report: --k must be at least 1\n";
-        return ExitUsage;
-    }
+    const auto settings = evalSettingsFromArgs(*args, error);
+    if (!settings || !args->has("out"))
+        return usageFailure("report", error.empty() ? std::string("--out FILE.pdf is required") : error);
+    if (args->has("base") != args->has("candidate"))
+        return usageFailure("report", "give both --base and --candidate, or neither");
     std::vector<std::string> runs = args->values("run");
     if (!runs.empty() && args->has("base")) {
         // The compared runs are always part of the pack.
-        for (const auto& name : {args->value("base"), args->value("candidate")})
+        for (const auto& name : { args->value("base"), args->value("candidate") })
             if (std::find(runs.begin(), runs.end(), name) == runs.end())
                 runs.push_back(name);
     }
 
-    qputenv("QT_QPA_PLATFORM", "offscreen");
-    static int qtArgc = 1;
-    static char qtName[] = "slatewise";
-    static char* qtArgv[] = {qtName, nullptr};
-    QApplication app(qtArgc, qtArgv);
-
-    core::EvalSettings settings;
-    settings.k = static_cast<std::int32_t>(*k);
-    settings.relevantAt = *relevantAt;
-    auto report = ui::WorkspaceReport::load(args->positionals().front(), runs, settings);
+    const OffscreenApp app;
+    auto report = ui::WorkspaceReport::load(args->positionals().front(), runs, *settings);
     if (!report)
         return printErrors("report", report.errors());
 
@@ -84,11 +68,12 @@ int reportCommand(const std::vector<std::string>& argv)
     if (args->has("base")) {
         base = report->runIndex(args->value("base"));
         candidate = report->runIndex(args->value("candidate"));
-        for (const auto& [index, name] : {std::pair{base, args->value("base")}, std::pair{candidate, args->value("candidate")}}) {
+        for (const auto& [index, name] :
+            { std::pair { base, args->value("base") }, std::pair { candidate, args->value("candidate") } }) {
             if (!index) {
-                core::Error e{core::ErrorKind::Usage, args->positionals().front(), 0, 0, name, "no such run",
-                              "the name of a run in the workspace (see 'slatewise info')"};
-                return printErrors("report", {e});
+                core::Error e { core::ErrorKind::Usage, args->positionals().front(), 0, 0, name, "no such run",
+                    "the name of a run in the workspace (see 'slatewise info')" };
+                return printErrors("report", { e });
             }
         }
         if (*base == *candidate) {
