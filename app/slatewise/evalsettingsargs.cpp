@@ -9,17 +9,24 @@ namespace slatewise::cli {
 std::vector<OptionSpec> evalSettingsOptions()
 {
     return {
-        {"k", "N", "list depth for the ranking metrics (default 10)"},
-        {"relevant-at", "X", "a withheld rating >= X counts as relevant (default 4.0)"},
-        {"bootstrap", "B", "bootstrap resamples for the 95% intervals, 0 to skip (default 1000)"},
-        {"seed", "S", "bootstrap seed (default 20261204)"},
-        {"settings", "FILE", "JSON object of evaluation settings (keys as stored with the results)"},
-        {"warn-low-diversity-ild", "X", "warn 'narrow' when ild < X (default 0.35)"},
-        {"warn-series-share", "X", "warn 'one-series' when series_share >= X (default 0.5)"},
-        {"warn-popular-top-percent", "X", "warn 'popular-only' when every item is in the top X% (default 5)"},
-        {"warn-calibration-kl", "X", "warn 'off-taste' when calibration_kl > X nats (default 1.0)"},
-        {"warn-cold-train", "N", "mark 'cold' users with fewer than N train rows (default 5)"},
+        { "k", "N", "list depth for the ranking metrics (default 10)" },
+        { "relevant-at", "X", "a withheld rating >= X counts as relevant (default 4.0)" },
+        { "bootstrap", "B", "bootstrap resamples for the 95% intervals, 0 to skip (default 1000)" },
+        { "seed", "S", "bootstrap seed (default 20261204)" },
+        { "settings", "FILE", "JSON object of evaluation settings (keys as stored with the results)" },
+        { "warn-low-diversity-ild", "X", "warn 'narrow' when ild < X (default 0.35)" },
+        { "warn-series-share", "X", "warn 'one-series' when series_share >= X (default 0.5)" },
+        { "warn-popular-top-percent", "X", "warn 'popular-only' when every item is in the top X% (default 5)" },
+        { "warn-calibration-kl", "X", "warn 'off-taste' when calibration_kl > X nats (default 1.0)" },
+        { "warn-cold-train", "N", "mark 'cold' users with fewer than N train rows (default 5)" },
     };
+}
+
+CommandSpec withEvalSettingsOptions(CommandSpec spec)
+{
+    for (auto& o : evalSettingsOptions())
+        spec.options.push_back(std::move(o));
+    return spec;
 }
 
 std::optional<core::EvalSettings> evalSettingsFromArgs(const Args& args, std::string& usage)
@@ -46,7 +53,8 @@ std::optional<core::EvalSettings> evalSettingsFromArgs(const Args& args, std::st
         if (!v)
             return false;
         if (*v < min || *v > 1000000000) {
-            usage = std::string("--") + name + " must be at least " + std::to_string(min) + ", got " + std::to_string(*v);
+            usage
+                = std::string("--") + name + " must be at least " + std::to_string(min) + ", got " + std::to_string(*v);
             return false;
         }
         field = static_cast<std::int32_t>(*v);

@@ -2,7 +2,6 @@
 #pragma once
 
 #include "app/slatewise/args.h"
-
 #include "core/evalsettings.h"
 
 #include <optional>
@@ -15,6 +14,9 @@ namespace slatewise::cli {
 /// --k, --relevant-at, --bootstrap, --seed, --settings FILE (JSON as EvalSettings::toJson
 /// writes it) and one --warn-... option per warning threshold. Options override the file.
 std::vector<OptionSpec> evalSettingsOptions();
+
+/// `spec` with the options above appended, for a command that evaluates.
+CommandSpec withEvalSettingsOptions(CommandSpec spec);
 
 /// Reads the options above onto the defaults. On a bad value returns nullopt and sets
 /// `usage` to a message naming the option, the value and what was expected.

@@ -4,7 +4,6 @@
 #include "app/slatewise/commands.h"
 #include "app/slatewise/evalsettingsargs.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/evaluationjson.h"
 #include "core/evaluationservice.h"
 #include "core/evaluationstore.h"
@@ -24,8 +23,7 @@ namespace {
 const CommandSpec& spec()
 {
     static const CommandSpec s = [] {
-        CommandSpec c{
-            "evaluate",
+        CommandSpec c { "evaluate",
             "WORKSPACE [--run NAME]... [--k N] [--relevant-at X] [--json FILE] [--per-user FILE] [--bootstrap B]",
             "Computes accuracy (RMSE, MAE, mean error, by rating band), top-k ranking metrics (precision,\n"
             "recall, hit rate, MRR, MAP, NDCG, graded NDCG, held-out top-k agreement, curves for k = 1..50),\n"
@@ -34,15 +32,13 @@ const CommandSpec& spec()
             "unchanged. Without --run every run is evaluated. Without --json a summary is printed.",
             1,
             {
-                {"run", "NAME", "evaluate this run (default: every run)", true},
-                {"json", "FILE", "write the results as JSON to FILE ('-' for standard output)"},
-                {"per-user", "FILE", "write one CSV row per run and user with a withheld item"},
-                {"recompute", "", "ignore stored results and compute again"},
-                {"quiet", "", "no progress line"},
-            }};
-        for (auto& o : evalSettingsOptions())
-            c.options.push_back(o);
-        return c;
+                { "run", "NAME", "evaluate this run (default: every run)", true },
+                { "json", "FILE", "write the results as JSON to FILE ('-' for standard output)" },
+                { "per-user", "FILE", "write one CSV row per run and user with a withheld item" },
+                { "recompute", "", "ignore stored results and compute again" },
+                { "quiet", "", "no progress line" },
+            } };
+        return withEvalSettingsOptions(std::move(c));
     }();
     return s;
 }
@@ -63,7 +59,10 @@ std::string pad(std::string s, std::size_t width, bool right = false)
     return right ? std::string(width - s.size(), ' ') + s : s + std::string(width - s.size(), ' ');
 }
 
-std::string percent(double share) { return std::isnan(share) ? "-" : fixed(100.0 * share, 1) + "%"; }
+std::string percent(double share)
+{
+    return std::isnan(share) ? "-" : fixed(100.0 * share, 1) + "%";
+}
 
 /// An interval is called wide when it spans more than ±10% of the reference value: the
 /// estimate rests on too few users (or too varied ones) to read small differences into.
@@ -243,8 +242,8 @@ int evaluateCommand(const std::vector<std::string>& argv)
         return printErrors(spec().name, ws.errors());
 
     CliProgress progress(args->has("quiet"));
-    auto result = core::evaluateRuns(ws.value(), args->values("run"), *settings, progress.progress(),
-                                     args->has("recompute"));
+    auto result
+        = core::evaluateRuns(ws.value(), args->values("run"), *settings, progress.progress(), args->has("recompute"));
     progress.finish();
     if (!result)
         return printErrors(spec().name, result.errors());
@@ -263,19 +262,18 @@ int evaluateCommand(const std::vector<std::string>& argv)
         auto ids = core::EvaluationStore::userIds(ws->db());
         if (!ids)
             return printErrors(spec().name, ids.errors());
-        if (!writeFile(args->value("per-user"), "the per-user CSV", [&](std::ostream& out) {
-                core::EvaluationJson::writePerUserCsv(out, evals, ids.value());
-            }))
+        if (!writeFile(args->value("per-user"), "the per-user CSV",
+                [&](std::ostream& out) { core::EvaluationJson::writePerUserCsv(out, evals, ids.value()); }))
             return ExitWorkspace;
     }
     if (!args->has("json")) {
         std::ostringstream out;
-        out << "Settings: k = " << settings->k << ", relevant = withheld rating >= "
-            << core::formatDouble(settings->relevantAt) << ", " << settings->bootstrap
-            << " bootstrap resamples (seed " << settings->seed << ")\n\n";
+        out << "Settings: k = " << settings->k
+            << ", relevant = withheld rating >= " << core::formatDouble(settings->relevantAt) << ", "
+            << settings->bootstrap << " bootstrap resamples (seed " << settings->seed << ")\n\n";
         if (evals.size() > 1)
             printOverview(out, evals, settings->k);
-        TablePrinter table{out};
+        TablePrinter table { out };
         for (std::size_t i = 0; i < evals.size(); ++i)
             printRun(out, evals[i], result->computed[i], table);
         if (table.anyWide)

@@ -4,7 +4,6 @@
 #include "app/slatewise/commands.h"
 #include "app/slatewise/evalsettingsargs.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/evaluationservice.h"
 #include "core/userexplanation.h"
 #include "core/workspace.h"
@@ -23,22 +22,19 @@ namespace {
 const CommandSpec& spec()
 {
     static const CommandSpec s = [] {
-        CommandSpec c{"explain",
-                      "WORKSPACE --run NAME --user ID [--k N] [--relevant-at X] [--json FILE]",
-                      "Explains how a run serves one user: the top-k list with hit, already-seen and series\n"
-                      "markers, the user's withheld titles (best rated first) with the score the run gave each\n"
-                      "and its rank in the list, every warning sentence, and the user's per-user metrics beside\n"
-                      "the run's mean. The run is evaluated first when no stored evaluation matches the settings.",
-                      1,
-                      {
-                          {"run", "NAME", "the run to look at (required)"},
-                          {"user", "ID", "the user's id as in the input files (required)"},
-                          {"json", "FILE", "also write the explanation as JSON to FILE ('-' for stdout only)"},
-                          {"quiet", "", "no progress line"},
-                      }};
-        for (auto& o : evalSettingsOptions())
-            c.options.push_back(o);
-        return c;
+        CommandSpec c { "explain", "WORKSPACE --run NAME --user ID [--k N] [--relevant-at X] [--json FILE]",
+            "Explains how a run serves one user: the top-k list with hit, already-seen and series\n"
+            "markers, the user's withheld titles (best rated first) with the score the run gave each\n"
+            "and its rank in the list, every warning sentence, and the user's per-user metrics beside\n"
+            "the run's mean. The run is evaluated first when no stored evaluation matches the settings.",
+            1,
+            {
+                { "run", "NAME", "the run to look at (required)" },
+                { "user", "ID", "the user's id as in the input files (required)" },
+                { "json", "FILE", "also write the explanation as JSON to FILE ('-' for stdout only)" },
+                { "quiet", "", "no progress line" },
+            } };
+        return withEvalSettingsOptions(std::move(c));
     }();
     return s;
 }
@@ -91,8 +87,8 @@ std::string seriesLabel(const std::string& series, std::int32_t part)
 
 void printText(std::ostream& out, const core::UserExplanation& x)
 {
-    out << "User " << x.userId << " under run '" << x.runName << "' (top " << x.k << ", relevant at rating >= "
-        << compact(x.relevantAt) << ")\n";
+    out << "User " << x.userId << " under run '" << x.runName << "' (top " << x.k
+        << ", relevant at rating >= " << compact(x.relevantAt) << ")\n";
     out << "History: " << x.nTrain << " train titles. Withheld: " << x.nWithheld << " titles, " << x.nRelevant
         << " relevant.";
     if (!x.burstGenre.empty())
@@ -128,13 +124,12 @@ void printText(std::ostream& out, const core::UserExplanation& x)
                 std::vector<std::string> parts;
                 for (const auto p : r.missingParts)
                     parts.push_back(std::to_string(p));
-                series += "  (missing " + std::string(parts.size() == 1 ? "part " : "parts ") + joined(parts, ", ") +
-                          ")";
+                series
+                    += "  (missing " + std::string(parts.size() == 1 ? "part " : "parts ") + joined(parts, ", ") + ")";
             }
-            out << pad(std::to_string(r.rank), 5, true) << "  " << pad(marks, 5) << "  " << pad(fixed(r.score, 3), 8, true)
-                << "  " << pad(titleWithYear(r.title, r.year), titleWidth) << "  "
-                << pad(joined(r.genres, "/"), genreWidth) << "  "
-                << series << "\n";
+            out << pad(std::to_string(r.rank), 5, true) << "  " << pad(marks, 5) << "  "
+                << pad(fixed(r.score, 3), 8, true) << "  " << pad(titleWithYear(r.title, r.year), titleWidth) << "  "
+                << pad(joined(r.genres, "/"), genreWidth) << "  " << series << "\n";
         }
         out << "Marks: H = hit (withheld, rated >= " << compact(x.relevantAt)
             << "), w = withheld but rated lower, S = already seen (in the train history),\n"
@@ -158,8 +153,8 @@ void printText(std::ostream& out, const core::UserExplanation& x)
             if (!w.series.empty())
                 title += "  [" + seriesLabel(w.series, w.seriesPart) + "]";
             out << pad(compact(w.rating) + (w.relevant ? "*" : " "), 6, true) << "  "
-                << pad(x.runHasScores ? fixed(w.score, 3) : std::string("-"), 8, true) << "  " << pad(where, 28)
-                << "  " << title << "\n";
+                << pad(x.runHasScores ? fixed(w.score, 3) : std::string("-"), 8, true) << "  " << pad(where, 28) << "  "
+                << title << "\n";
         }
         out << "* = relevant (rated >= " << compact(x.relevantAt) << ")";
         if (x.runHasScores)
@@ -188,8 +183,8 @@ void printText(std::ostream& out, const core::UserExplanation& x)
         const auto& info = core::metricInfo(m.metric);
         if (std::isnan(m.user) && std::isnan(m.runMean))
             continue;
-        out << "  " << pad(std::string(info.key), 18) << pad(fixed(m.user, 4), 10, true) << pad(fixed(m.runMean, 4), 10, true)
-            << "\n";
+        out << "  " << pad(std::string(info.key), 18) << pad(fixed(m.user, 4), 10, true)
+            << pad(fixed(m.runMean, 4), 10, true) << "\n";
     }
     out << "('-' = not defined for this user)\n";
 }
@@ -215,7 +210,7 @@ int explainCommand(const std::vector<std::string>& argv)
     if (!ws)
         return printErrors(spec().name, ws.errors());
     CliProgress progress(args->has("quiet"));
-    auto evaluated = core::evaluateRuns(ws.value(), {args->value("run")}, *settings, progress.progress());
+    auto evaluated = core::evaluateRuns(ws.value(), { args->value("run") }, *settings, progress.progress());
     if (!evaluated) {
         progress.finish();
         return printErrors(spec().name, evaluated.errors());
@@ -238,8 +233,7 @@ int explainCommand(const std::vector<std::string>& argv)
     const core::UserIndex user(static_cast<std::uint32_t>(found - ids.begin()));
 
     const core::DatasetStats stats = core::computeStats(data.value());
-    const auto x =
-        core::UserExplanation::build(data.value(), stats, run.value(), evaluated->evaluations.front(), user);
+    const auto x = core::UserExplanation::build(data.value(), stats, run.value(), evaluated->evaluations.front(), user);
 
     if (args->has("json")) {
         const std::string path = args->value("json");
@@ -253,7 +247,7 @@ int explainCommand(const std::vector<std::string>& argv)
             e.kind = core::ErrorKind::Usage;
             e.file = path;
             e.message = "cannot write the JSON file";
-            return printErrors(spec().name, {e});
+            return printErrors(spec().name, { e });
         }
     }
     printText(std::cout, x);

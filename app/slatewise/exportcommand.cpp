@@ -34,9 +34,7 @@ const CommandSpec& exportSpec()
                 { "width", "PX", "PNG width in pixels (default 1600)" },
                 { "height", "PX", "PNG height in pixels (default 1000)" },
                 { "dpi", "N", "PNG resolution; text keeps its physical size (default 144)" } } };
-        for (auto& o : evalSettingsOptions())
-            c.options.push_back(o);
-        return c;
+        return withEvalSettingsOptions(std::move(c));
     }();
     return spec;
 }

@@ -30,9 +30,7 @@ const CommandSpec& reportSpec()
             { { "out", "FILE", "the PDF to write" }, { "base", "NAME", "the run to compare against" },
                 { "candidate", "NAME", "the run being judged; its worst-served users are the case studies" },
                 { "run", "NAME", "a run to include (repeat for several; default: all runs)", true } } };
-        for (auto& o : evalSettingsOptions())
-            c.options.push_back(o);
-        return c;
+        return withEvalSettingsOptions(std::move(c));
     }();
     return spec;
 }

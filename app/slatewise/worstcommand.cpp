@@ -4,7 +4,6 @@
 #include "app/slatewise/commands.h"
 #include "app/slatewise/evalsettingsargs.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/evaluationservice.h"
 #include "core/evaluationstore.h"
 #include "core/workspace.h"
@@ -23,26 +22,23 @@ namespace {
 const CommandSpec& spec()
 {
     static const CommandSpec s = [] {
-        CommandSpec c{
-            "worst",
-            "WORKSPACE --run NAME --by METRIC [--limit N] [--warning CODE]",
+        CommandSpec c { "worst", "WORKSPACE --run NAME --by METRIC [--limit N] [--warning CODE]",
             "Lists the users a run serves worst on one per-user metric (lowest NDCG, highest RMSE, ...),\n"
             "worst first, with their withheld and train counts and warning codes. Users for whom the\n"
             "metric is not defined are left out and counted. Metrics where neither direction is better\n"
             "(mean_error, popularity_lift) are ordered by their size, largest first.",
             1,
             {
-                {"run", "NAME", "the run to look at (required)"},
-                {"by", "METRIC", "per-user metric: rmse, mae, mean_error, precision, recall, ap (map), rr (mrr), "
-                                 "ndcg, ndcg_graded, heldout_topk, ild, novelty, popularity_lift, calibration_kl, "
-                                 "series_share, order_violations, burst_echo, seen_in_list"},
-                {"limit", "N", "how many users to list (default 20; 0 = all)"},
-                {"warning", "CODE", "only users carrying this warning (e.g. sequel-first)"},
-                {"quiet", "", "no progress line"},
-            }};
-        for (auto& o : evalSettingsOptions())
-            c.options.push_back(o);
-        return c;
+                { "run", "NAME", "the run to look at (required)" },
+                { "by", "METRIC",
+                    "per-user metric: rmse, mae, mean_error, precision, recall, ap (map), rr (mrr), "
+                    "ndcg, ndcg_graded, heldout_topk, ild, novelty, popularity_lift, calibration_kl, "
+                    "series_share, order_violations, burst_echo, seen_in_list" },
+                { "limit", "N", "how many users to list (default 20; 0 = all)" },
+                { "warning", "CODE", "only users carrying this warning (e.g. sequel-first)" },
+                { "quiet", "", "no progress line" },
+            } };
+        return withEvalSettingsOptions(std::move(c));
     }();
     return s;
 }
@@ -76,14 +72,15 @@ int worstCommand(const std::vector<std::string>& argv)
         return usageFailure(spec().name, "--by METRIC is required");
     const auto metric = core::metricFromKey(args->value("by"));
     if (!metric)
-        return usageFailure(spec().name, "unknown metric '" + args->value("by") + "'; expected one of: "
-                                             + spec().options[1].help.substr(spec().options[1].help.find(':') + 2));
+        return usageFailure(spec().name,
+            "unknown metric '" + args->value("by")
+                + "'; expected one of: " + spec().options[1].help.substr(spec().options[1].help.find(':') + 2));
     std::optional<core::WarningCode> warning;
     if (args->has("warning")) {
         warning = core::warningFromKey(args->value("warning"));
         if (!warning)
             return usageFailure(spec().name,
-                                "unknown warning code '" + args->value("warning") + "'; expected one of: " + knownWarnings());
+                "unknown warning code '" + args->value("warning") + "'; expected one of: " + knownWarnings());
     }
     std::string usage;
     const auto limit = args->integer("limit", 20, usage);
@@ -97,7 +94,7 @@ int worstCommand(const std::vector<std::string>& argv)
     if (!ws)
         return printErrors(spec().name, ws.errors());
     CliProgress progress(args->has("quiet"));
-    auto result = core::evaluateRuns(ws.value(), {args->value("run")}, *settings, progress.progress());
+    auto result = core::evaluateRuns(ws.value(), { args->value("run") }, *settings, progress.progress());
     progress.finish();
     if (!result)
         return printErrors(spec().name, result.errors());
@@ -149,13 +146,14 @@ int worstCommand(const std::vector<std::string>& argv)
         return v;
     };
     std::stable_sort(rows.begin(), rows.end(), [&](std::size_t a, std::size_t b) { return badness(a) > badness(b); });
-    const std::size_t shown = *limit == 0 ? rows.size() : std::min<std::size_t>(rows.size(), static_cast<std::size_t>(*limit));
+    const std::size_t shown
+        = *limit == 0 ? rows.size() : std::min<std::size_t>(rows.size(), static_cast<std::size_t>(*limit));
 
     std::ostringstream out;
     out << "Worst-served users of run '" << e.runName << "' by " << info.key << " ("
-        << (info.better == core::Better::Higher  ? "lowest first"
-            : info.better == core::Better::Lower ? "highest first"
-                                                 : "largest size first")
+        << (info.better == core::Better::Higher         ? "lowest first"
+                   : info.better == core::Better::Lower ? "highest first"
+                                                        : "largest size first")
         << ", k = " << e.settings.k << ")";
     if (warning)
         out << ", carrying '" << core::warningInfo(*warning).key << "'";
