@@ -58,8 +58,8 @@ struct Paired {
     std::vector<double> base, candidate;
 };
 
-Paired pairValues(const RunEvaluation& base, const RunEvaluation& candidate,
-                  const std::vector<std::int64_t>& candidateRow, Metric m)
+Paired pairValues(
+    const RunEvaluation& base, const RunEvaluation& candidate, const std::vector<std::int64_t>& candidateRow, Metric m)
 {
     Paired p;
     const auto& bc = base.users.column(m);
@@ -99,8 +99,8 @@ std::string tests(std::size_t n)
 
 std::string holmNote(std::size_t count, const std::string& family)
 {
-    return "p_holm: paired t-test p-values adjusted by Holm-Bonferroni (Holm 1979) across the " + tests(count)
-        + " of " + family + "; p_holm_wilcoxon does the same for the Wilcoxon p-values. Significance is judged on p_holm.";
+    return "p_holm: paired t-test p-values adjusted by Holm-Bonferroni (Holm 1979) across the " + tests(count) + " of "
+        + family + "; p_holm_wilcoxon does the same for the Wilcoxon p-values. Significance is judged on p_holm.";
 }
 
 /// Adjusts a family in place (by pointer, so metrics and segment rows share one code path).
@@ -157,8 +157,8 @@ Interval meanDifferenceInterval(const std::vector<double>& d, std::int32_t resam
 
 } // namespace
 
-MetricComparison compareValues(Metric metric, std::span<const double> base, std::span<const double> candidate,
-                               const ComparisonSettings& settings)
+MetricComparison compareValues(
+    Metric metric, std::span<const double> base, std::span<const double> candidate, const ComparisonSettings& settings)
 {
     MetricComparison m;
     m.metric = metric;
@@ -220,8 +220,8 @@ std::string comparisonVerdict(const MetricComparison& m, const ComparisonSetting
     if (m.meanDiff == 0.0)
         change = key + " is the same on average";
     else
-        change = key + (m.meanDiff > 0 ? " is higher" : " is lower") + " for the candidate by " + fmt(std::fabs(m.meanDiff))
-            + " on average";
+        change = key + (m.meanDiff > 0 ? " is higher" : " is lower") + " for the candidate by "
+            + fmt(std::fabs(m.meanDiff)) + " on average";
     if (better == Better::Lower)
         change += " (lower is better, so a decrease is a win for the candidate)";
     else if (better == Better::Neither)
@@ -229,8 +229,8 @@ std::string comparisonVerdict(const MetricComparison& m, const ComparisonSetting
 
     const bool ciKnown = !std::isnan(m.ci.low) && !std::isnan(m.ci.high);
     const bool ciHasZero = ciKnown && m.ci.low <= 0.0 && 0.0 <= m.ci.high;
-    const std::string ci = ciKnown ? percent(settings.level) + " interval " + fmt(m.ci.low) + " to " + fmt(m.ci.high)
-                                   : "no interval";
+    const std::string ci
+        = ciKnown ? percent(settings.level) + " interval " + fmt(m.ci.low) + " to " + fmt(m.ci.high) : "no interval";
 
     if (m.tooSmall)
         return "Too small to judge: only " + std::to_string(m.n) + " users (fewer than "
@@ -255,13 +255,12 @@ std::string comparisonVerdict(const MetricComparison& m, const ComparisonSetting
     if (ciKnown && !ciHasZero)
         return "Not significant after Holm adjustment: " + change + " (" + p + " >= " + fmt(settings.alpha)
             + "), although the unadjusted " + ci + " excludes 0.";
-    return "No real difference shown: " + change + ", but it is not significant after Holm adjustment (" + p + " >= "
-        + fmt(settings.alpha) + ") and the " + ci + (ciKnown ? " includes 0." : ".");
+    return "No real difference shown: " + change + ", but it is not significant after Holm adjustment (" + p
+        + " >= " + fmt(settings.alpha) + ") and the " + ci + (ciKnown ? " includes 0." : ".");
 }
 
 Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation& candidate, const Dataset& data,
-                                  const DatasetStats& stats, const ComparisonSettings& settings,
-                                  const Progress& progress)
+    const DatasetStats& stats, const ComparisonSettings& settings, const Progress& progress)
 {
     const std::string baseSettings = base.settings.toJson();
     if (baseSettings != candidate.settings.toJson()) {
@@ -315,7 +314,7 @@ Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation
     }
     if (!skipped.empty())
         out.notes.push_back("Left out, as no user has them in both runs: " + skipped
-                            + " (rmse and mae need scores; ranking and beyond-accuracy metrics need lists).");
+            + " (rmse and mae need scores; ranking and beyond-accuracy metrics need lists).");
     if (metrics.empty()) {
         Error e;
         e.kind = ErrorKind::Usage;
@@ -397,13 +396,13 @@ Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation
                 segmentFamily.push_back(&m);
         adjustFamily(segmentFamily, settings);
         out.notes.push_back("Segment rows are adjusted as a separate Holm family of " + tests(countTests(segmentFamily))
-                            + " (every segment and metric); segments under " + std::to_string(settings.minSegmentSize)
-                            + " users are marked too small to judge and never called significant.");
+            + " (every segment and metric); segments under " + std::to_string(settings.minSegmentSize)
+            + " users are marked too small to judge and never called significant.");
     }
     out.notes.push_back("Differences are candidate - base per user; the interval is a " + percent(settings.level)
-                        + " percentile bootstrap over users (" + std::to_string(settings.bootstrap) + " resamples, seed "
-                        + std::to_string(settings.seed) + "); wins/ties/losses use a tie tolerance of "
-                        + fmt(settings.tolerance, "%g") + ".");
+        + " percentile bootstrap over users (" + std::to_string(settings.bootstrap) + " resamples, seed "
+        + std::to_string(settings.seed) + "); wins/ties/losses use a tie tolerance of " + fmt(settings.tolerance, "%g")
+        + ".");
 
     // Who got worse: the first metric with a better direction.
     for (std::size_t i = 0; i < metrics.size(); ++i) {
@@ -460,8 +459,8 @@ std::vector<RunComparison> adjustAcrossPairs(std::vector<RunComparison> comparis
     adjustFamily(family, settings);
     if (!segmentFamily.empty())
         adjustFamily(segmentFamily, settings);
-    const std::string note = holmNote(countTests(family), "every metric of the " + std::to_string(comparisons.size())
-                                                              + " run pairs compared together");
+    const std::string note = holmNote(countTests(family),
+        "every metric of the " + std::to_string(comparisons.size()) + " run pairs compared together");
     for (auto& c : comparisons) {
         if (!c.notes.empty() && c.notes.front().rfind("p_holm:", 0) == 0)
             c.notes.front() = note;
@@ -477,6 +476,23 @@ std::vector<RunComparison> adjustAcrossPairs(std::vector<RunComparison> comparis
         }
     }
     return comparisons;
+}
+
+std::string shortVerdict(const MetricComparison& m)
+{
+    if (m.n < 2)
+        return "cannot compare";
+    if (m.tooSmall)
+        return "too small to judge";
+    if (std::isnan(m.pHolm))
+        return "no test (all differences equal)";
+    if (!m.significant)
+        return "not significant";
+    const auto better = metricInfo(m.metric).better;
+    if (better == Better::Neither)
+        return "significant change";
+    return (m.meanDiff > 0) == (better == Better::Higher) ? "significant: candidate better"
+                                                          : "significant: candidate worse";
 }
 
 } // namespace slatewise::core

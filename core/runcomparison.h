@@ -26,13 +26,12 @@ namespace slatewise::core {
 /// Errors: Usage when the runs were evaluated under different settings or no metric is defined
 /// for both; Cancelled when progress.cancel is raised.
 Result<RunComparison> compareRuns(const RunEvaluation& base, const RunEvaluation& candidate, const Dataset& data,
-                                  const DatasetStats& stats, const ComparisonSettings& settings,
-                                  const Progress& progress = {});
+    const DatasetStats& stats, const ComparisonSettings& settings, const Progress& progress = {});
 
 /// The comparison of one metric on paired values (same order, NaN-free). Holm fields and the
 /// verdict are filled as for a family of one; compareRuns() adjusts them afterwards.
-MetricComparison compareValues(Metric metric, std::span<const double> base, std::span<const double> candidate,
-                               const ComparisonSettings& settings);
+MetricComparison compareValues(
+    Metric metric, std::span<const double> base, std::span<const double> candidate, const ComparisonSettings& settings);
 
 /// When several run pairs are compared at once: Holm across every metric of every pair (and,
 /// separately, across every segment row of every pair); verdicts and notes are rewritten.
@@ -40,5 +39,9 @@ std::vector<RunComparison> adjustAcrossPairs(std::vector<RunComparison> comparis
 
 /// The plain-language verdict of one metric comparison, from its adjusted p-value and interval.
 std::string comparisonVerdict(const MetricComparison& m, const ComparisonSettings& settings);
+
+/// The verdict in a few words, for a table column: "significant: candidate better",
+/// "not significant", "too small to judge", …
+std::string shortVerdict(const MetricComparison& m);
 
 } // namespace slatewise::core

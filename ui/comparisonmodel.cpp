@@ -2,6 +2,7 @@
 #include "ui/comparisonmodel.h"
 
 #include "core/comparisonresult.h"
+#include "core/runcomparison.h"
 #include "ui/format.h"
 
 #include <QFont>
@@ -21,7 +22,10 @@ QString formatP(double p)
 }
 } // namespace
 
-ComparisonModel::ComparisonModel(QObject* parent) : TableModelBase(parent) {}
+ComparisonModel::ComparisonModel(QObject* parent)
+    : TableModelBase(parent)
+{
+}
 ComparisonModel::~ComparisonModel() = default;
 
 void ComparisonModel::setResults(std::shared_ptr<const core::RunComparison> comparison)
@@ -89,7 +93,10 @@ QVariant ComparisonModel::data(const QModelIndex& index, int role) const
         case MeanCandidate:
             return formatNumber(number(), 4);
         case MeanDiff:
-            return std::isnan(m.meanDiff) ? QStringLiteral("–") : QStringLiteral("%1%2").arg(m.meanDiff >= 0 ? QStringLiteral("+") : QString()).arg(m.meanDiff, 0, 'f', 4);
+            return std::isnan(m.meanDiff) ? QStringLiteral("–")
+                                          : QStringLiteral("%1%2")
+                                                .arg(m.meanDiff >= 0 ? QStringLiteral("+") : QString())
+                                                .arg(m.meanDiff, 0, 'f', 4);
         case Interval:
             return formatInterval(m.ci, 4);
         case PT:
@@ -98,6 +105,8 @@ QVariant ComparisonModel::data(const QModelIndex& index, int role) const
             return formatP(number());
         case Effect:
             return formatNumber(m.effectSize, 2);
+        case Judgement:
+            return toQ(core::shortVerdict(m));
         case Verdict:
             if (m.tooSmall)
                 return tr("too few users to judge");
@@ -106,13 +115,13 @@ QVariant ComparisonModel::data(const QModelIndex& index, int role) const
             return {};
         }
     case Qt::ToolTipRole:
-        if (c == Verdict)
+        if (c == Verdict || c == Judgement)
             return toQ(m.verdict);
         if (c == Metric)
             return metricTooltip(m.metric);
         return {};
     case Qt::FontRole:
-        if (c == Verdict && m.significant) {
+        if ((c == Verdict || c == Judgement) && m.significant) {
             QFont f;
             f.setBold(true);
             return f;
@@ -136,6 +145,10 @@ TableModelBase::ColumnSpec ComparisonModel::columnSpec(int column) const
     switch (column) {
     case Metric:
         return textColumn(tr("Metric"), {});
+    case Judgement:
+        return textColumn(tr("Judgement"),
+            tr("Significant (Holm-adjusted p below 0.05) and in whose favour, not "
+               "significant, or too few users to judge. Hover for the full sentence."));
     case Users:
         return numberColumn(tr("Users"), tr("Users for whom both runs define the metric (the pairs compared)."));
     case MeanBase:
@@ -145,13 +158,15 @@ TableModelBase::ColumnSpec ComparisonModel::columnSpec(int column) const
     case MeanDiff:
         return numberColumn(tr("Difference"), tr("Mean of the per-user differences, candidate − base."));
     case Interval:
-        return numberColumn(tr("95% interval"), tr("Paired bootstrap interval of the mean difference (users resampled)."));
+        return numberColumn(
+            tr("95% interval"), tr("Paired bootstrap interval of the mean difference (users resampled)."));
     case PT:
         return numberColumn(tr("p (t-test)"), tr("Two-sided p-value of the paired t-test."));
     case PWilcoxon:
         return numberColumn(tr("p (Wilcoxon)"), tr("Two-sided p-value of the Wilcoxon signed-rank test."));
     case PHolm:
-        return numberColumn(tr("p (Holm)"), tr("t-test p-value adjusted by Holm–Bonferroni across all metrics compared."));
+        return numberColumn(
+            tr("p (Holm)"), tr("t-test p-value adjusted by Holm–Bonferroni across all metrics compared."));
     case Wins:
         return numberColumn(tr("Better"), tr("Users for whom the candidate is better."));
     case Ties:
@@ -161,7 +176,8 @@ TableModelBase::ColumnSpec ComparisonModel::columnSpec(int column) const
     case Effect:
         return numberColumn(tr("Effect size"), tr("Mean difference / standard deviation of the differences."));
     case Verdict:
-        return textColumn(tr("In words"), tr("Whether the difference is real, judged from the Holm-adjusted p-value and the interval."));
+        return textColumn(tr("In words"),
+            tr("Whether the difference is real, judged from the Holm-adjusted p-value and the interval."));
     default:
         return {};
     }

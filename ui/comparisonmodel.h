@@ -17,11 +17,28 @@ namespace slatewise::ui {
 class ComparisonModel : public TableModelBase {
     Q_OBJECT
 public:
-    enum Column { Metric, Users, MeanBase, MeanCandidate, MeanDiff, Interval, PT, PWilcoxon, PHolm, Wins, Ties, Losses, Effect, Verdict, ColumnCount };
+    enum Column {
+        Metric,
+        Judgement,
+        Users,
+        MeanBase,
+        MeanCandidate,
+        MeanDiff,
+        Interval,
+        PT,
+        PWilcoxon,
+        PHolm,
+        Wins,
+        Ties,
+        Losses,
+        Effect,
+        Verdict,
+        ColumnCount
+    };
     enum Role {
         ValueRole = Qt::UserRole, ///< double behind numeric cells
-        SignificantRole,          ///< bool
-        MetricRole,               ///< int core::Metric
+        SignificantRole, ///< bool
+        MetricRole, ///< int core::Metric
     };
 
     explicit ComparisonModel(QObject* parent = nullptr);

@@ -2,13 +2,17 @@
 #include "ui/segmentmodel.h"
 
 #include "core/comparisonresult.h"
+#include "core/runcomparison.h"
 #include "ui/format.h"
 
 #include <cmath>
 
 namespace slatewise::ui {
 
-SegmentModel::SegmentModel(QObject* parent) : TableModelBase(parent) {}
+SegmentModel::SegmentModel(QObject* parent)
+    : TableModelBase(parent)
+{
+}
 SegmentModel::~SegmentModel() = default;
 
 void SegmentModel::setResults(std::shared_ptr<const core::RunComparison> comparison, core::Metric metric)
@@ -73,17 +77,24 @@ QVariant SegmentModel::data(const QModelIndex& index, int role) const
             return m ? formatInterval(m->ci, 4) : QString();
         case PHolm: {
             const double p = number();
-            return std::isnan(p) ? QStringLiteral("–") : (p < 0.001 ? QStringLiteral("< 0.001") : QString::number(p, 'f', 3));
+            return std::isnan(p) ? QStringLiteral("–")
+                                 : (p < 0.001 ? QStringLiteral("< 0.001") : QString::number(p, 'f', 3));
         }
+        case Judgement:
+            if (tooSmall)
+                return tr("too small to judge");
+            return m ? toQ(core::shortVerdict(*m)) : tr("not defined");
         case Verdict:
             if (tooSmall)
-                return tr("too small to judge (%1 users; at least %2 needed)").arg(s.size).arg(m_comparison->settings.minSegmentSize);
+                return tr("too small to judge (%1 users; at least %2 needed)")
+                    .arg(s.size)
+                    .arg(m_comparison->settings.minSegmentSize);
             return m ? toQ(m->verdict) : tr("metric not defined here");
         default:
             return {};
         }
     case Qt::ToolTipRole:
-        return c == Verdict && m ? QVariant(toQ(m->verdict)) : QVariant();
+        return (c == Verdict || c == Judgement) && m ? QVariant(toQ(m->verdict)) : QVariant();
     case Qt::TextAlignmentRole:
         return alignment(c);
     case ValueRole:
@@ -101,7 +112,12 @@ TableModelBase::ColumnSpec SegmentModel::columnSpec(int column) const
 {
     switch (column) {
     case Segment:
-        return textColumn(tr("Segment"), tr("A group of users: by history size (activity), favourite genre or warning."));
+        return textColumn(
+            tr("Segment"), tr("A group of users: by history size (activity), favourite genre or warning."));
+    case Judgement:
+        return textColumn(tr("Judgement"),
+            tr("Significant and in whose favour, not significant, or too few users "
+               "to judge. Hover for the full sentence."));
     case Users:
         return numberColumn(tr("Users"), tr("Evaluated users in the segment."));
     case MeanBase:

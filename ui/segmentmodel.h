@@ -18,11 +18,11 @@ namespace slatewise::ui {
 class SegmentModel : public TableModelBase {
     Q_OBJECT
 public:
-    enum Column { Segment, Users, MeanBase, MeanCandidate, MeanDiff, Interval, PHolm, Verdict, ColumnCount };
+    enum Column { Segment, Judgement, Users, MeanBase, MeanCandidate, MeanDiff, Interval, PHolm, Verdict, ColumnCount };
     enum Role {
         ValueRole = Qt::UserRole, ///< double behind numeric cells
-        TooSmallRole,             ///< bool
-        SegmentNameRole,          ///< QString, e.g. "activity:q2"
+        TooSmallRole, ///< bool
+        SegmentNameRole, ///< QString, e.g. "activity:q2"
     };
 
     explicit SegmentModel(QObject* parent = nullptr);

@@ -101,23 +101,6 @@ std::string pad(std::string s, std::size_t width, bool right = false)
     return right ? std::string(width - s.size(), ' ') + s : s + std::string(width - s.size(), ' ');
 }
 
-std::string shortJudgement(const core::MetricComparison& m)
-{
-    if (m.n < 2)
-        return "cannot compare";
-    if (m.tooSmall)
-        return "too small to judge";
-    if (std::isnan(m.pHolm))
-        return "no test (all differences equal)";
-    if (!m.significant)
-        return "not significant";
-    const auto better = core::metricInfo(m.metric).better;
-    if (better == core::Better::Neither)
-        return "significant change";
-    return (m.meanDiff > 0) == (better == core::Better::Higher) ? "significant: candidate better"
-                                                                : "significant: candidate worse";
-}
-
 std::string interval(const core::Interval& ci)
 {
     if (std::isnan(ci.low))
@@ -143,7 +126,7 @@ void printMetricRow(std::ostream& out, const core::MetricComparison& m)
         << pad(interval(m.ci), 21) << pad(pval(m.pT), 9, true) << pad(pval(m.pWilcoxon), 10, true)
         << pad(pval(m.pHolm), 9, true)
         << pad(std::to_string(m.wins) + "/" + std::to_string(m.ties) + "/" + std::to_string(m.losses), 19, true)
-        << pad(num(m.effectSize, "%+.2f"), 8, true) << "  " << shortJudgement(m) << "\n";
+        << pad(num(m.effectSize, "%+.2f"), 8, true) << "  " << core::shortVerdict(m) << "\n";
 }
 
 std::string joined(const std::vector<std::string>& v)

@@ -6,7 +6,6 @@
 #include "core/evaluator.h"
 #include "core/runcomparison.h"
 #include "core/syntheticdata.h"
-#include "support/testsupport.h"
 #include "ui/comparisonmodel.h"
 #include "ui/inspectorlistmodel.h"
 #include "ui/runmetricsmodel.h"
@@ -24,6 +23,8 @@
 #include <algorithm>
 #include <cmath>
 #include <memory>
+
+#include "support/testsupport.h"
 
 using namespace slatewise;
 
@@ -68,7 +69,8 @@ void TestItemModels::initTestCase()
     m_other->info.name = "reversed";
     m_other->info.id = 2;
     for (std::size_t u = 0; u < m_data->userCount(); ++u)
-        std::reverse(m_other->listRows.begin() + m_other->listOffsets[u], m_other->listRows.begin() + m_other->listOffsets[u + 1]);
+        std::reverse(m_other->listRows.begin() + m_other->listOffsets[u],
+            m_other->listRows.begin() + m_other->listOffsets[u + 1]);
     for (auto& s : m_other->scores)
         s += 0.3f;
     const auto stats = core::computeStats(*m_data);
@@ -89,14 +91,17 @@ void TestItemModels::modelsPassTheTester()
     using Mode = QAbstractItemModelTester::FailureReportingMode;
     ui::RunMetricsModel runs;
     QAbstractItemModelTester t1(&runs, Mode::QtTest);
-    runs.setResults({m_eval, m_otherEval});
+    runs.setResults({ m_eval, m_otherEval });
     QCOMPARE(runs.rowCount(), 2);
     QCOMPARE(runs.data(runs.index(0, ui::RunMetricsModel::Run)).toString(), QStringLiteral("synthetic"));
-    QCOMPARE(runs.data(runs.index(0, ui::RunMetricsModel::Ndcg), ui::RunMetricsModel::ValueRole).toDouble(), m_eval->ranking->ndcg);
-    QCOMPARE(runs.data(runs.index(1, ui::RunMetricsModel::Rmse), ui::RunMetricsModel::ValueRole).toDouble(), m_otherEval->accuracy->rmse);
+    QCOMPARE(runs.data(runs.index(0, ui::RunMetricsModel::Ndcg), ui::RunMetricsModel::ValueRole).toDouble(),
+        m_eval->ranking->ndcg);
+    QCOMPARE(runs.data(runs.index(1, ui::RunMetricsModel::Rmse), ui::RunMetricsModel::ValueRole).toDouble(),
+        m_otherEval->accuracy->rmse);
     // Every metric header explains itself with the sentence from core/metric.h.
     const QString tip = runs.headerData(ui::RunMetricsModel::Ndcg, Qt::Horizontal, Qt::ToolTipRole).toString();
-    QVERIFY2(tip.contains(QString::fromUtf8(core::metricInfo(core::Metric::Ndcg).summary.data()).toHtmlEscaped()), qPrintable(tip));
+    QVERIFY2(tip.contains(QString::fromUtf8(core::metricInfo(core::Metric::Ndcg).summary.data()).toHtmlEscaped()),
+        qPrintable(tip));
 
     ui::UserBrowserModel browser;
     QAbstractItemModelTester t2(&browser, Mode::QtTest);
@@ -109,9 +114,8 @@ void TestItemModels::modelsPassTheTester()
     proxy.setWarningFilter(ui::UserBrowserProxy::kAnyWarning);
     proxy.setUserText(QStringLiteral("1"));
 
-    const auto inspection =
-        std::make_shared<const ui::UserInspection>(ui::UserInspection::build(*m_data, *m_run, *m_eval, m_eval->users.users[0],
-                                                                             ui::UserInspection::columnMeans(*m_eval)));
+    const auto inspection = std::make_shared<const ui::UserInspection>(ui::UserInspection::build(
+        *m_data, *m_run, *m_eval, m_eval->users.users[0], ui::UserInspection::columnMeans(*m_eval)));
     ui::InspectorListModel list;
     QAbstractItemModelTester t4(&list, Mode::QtTest);
     list.setResults(inspection, m_data);
@@ -127,7 +131,7 @@ void TestItemModels::modelsPassTheTester()
 
     core::ComparisonSettings cs;
     cs.bootstrap = 100;
-    cs.segments.push_back(core::SegmentSpec{});
+    cs.segments.push_back(core::SegmentSpec {});
     const auto stats = core::computeStats(*m_data);
     auto comparison = core::compareRuns(*m_eval, *m_otherEval, *m_data, stats, cs);
     QVERIFY2(comparison.ok(), comparison.ok() ? "" : comparison.error().toString().c_str());
@@ -136,15 +140,27 @@ void TestItemModels::modelsPassTheTester()
     QAbstractItemModelTester t7(&cmp, Mode::QtTest);
     cmp.setResults(shared);
     QCOMPARE(cmp.rowCount(), static_cast<int>(shared->metrics.size()));
-    QCOMPARE(cmp.data(cmp.index(0, ui::ComparisonModel::MeanDiff), ui::ComparisonModel::ValueRole).toDouble(), shared->metrics[0].meanDiff);
+    QCOMPARE(cmp.data(cmp.index(0, ui::ComparisonModel::MeanDiff), ui::ComparisonModel::ValueRole).toDouble(),
+        shared->metrics[0].meanDiff);
+    for (int r = 0; r < cmp.rowCount(); ++r) {
+        // The short judgement agrees with the significance the comparison computed.
+        const QString judgement = cmp.data(cmp.index(r, ui::ComparisonModel::Judgement)).toString();
+        const bool significant = cmp.data(cmp.index(r, 0), ui::ComparisonModel::SignificantRole).toBool();
+        QCOMPARE(judgement.startsWith(QStringLiteral("significant")), significant);
+    }
     ui::SegmentModel segments;
     QAbstractItemModelTester t8(&segments, Mode::QtTest);
     segments.setResults(shared, core::Metric::Ndcg);
     QCOMPARE(segments.rowCount(), static_cast<int>(shared->segments.size()));
     for (int r = 0; r < segments.rowCount(); ++r) {
         // A segment under the minimum size says so in words.
-        if (segments.data(segments.index(r, 0), ui::SegmentModel::TooSmallRole).toBool())
-            QVERIFY(segments.data(segments.index(r, ui::SegmentModel::Verdict)).toString().contains(QStringLiteral("too small to judge")));
+        if (segments.data(segments.index(r, 0), ui::SegmentModel::TooSmallRole).toBool()) {
+            QVERIFY(segments.data(segments.index(r, ui::SegmentModel::Verdict))
+                        .toString()
+                        .contains(QStringLiteral("too small to judge")));
+            QCOMPARE(segments.data(segments.index(r, ui::SegmentModel::Judgement)).toString(),
+                QStringLiteral("too small to judge"));
+        }
     }
     ui::WorseUsersModel worse;
     QAbstractItemModelTester t9(&worse, Mode::QtTest);
@@ -251,7 +267,8 @@ void TestItemModels::browseFilters()
             QVERIFY(std::binary_search(carrying.begin(), carrying.end(), user));
         }
     }
-    const auto warned = std::count_if(table.warningCount.begin(), table.warningCount.end(), [](auto c) { return c > 0; });
+    const auto warned
+        = std::count_if(table.warningCount.begin(), table.warningCount.end(), [](auto c) { return c > 0; });
     proxy.setWarningFilter(ui::UserBrowserProxy::kAnyWarning);
     QCOMPARE(proxy.rowCount(), static_cast<int>(warned));
     proxy.setWarningFilter(ui::UserBrowserProxy::kNoWarning);
@@ -260,14 +277,14 @@ void TestItemModels::browseFilters()
     QCOMPARE(proxy.rowCount(), static_cast<int>(table.size()));
 
     // Segments: cold users by the stored train counts; the four quarters partition the rest.
-    const auto cold = std::count_if(table.nTrain.begin(), table.nTrain.end(),
-                                    [&](auto n) { return n < m_eval->settings.warn.coldTrain; });
+    const auto cold = std::count_if(
+        table.nTrain.begin(), table.nTrain.end(), [&](auto n) { return n < m_eval->settings.warn.coldTrain; });
     proxy.setSegment(ui::UserBrowserProxy::Segment::Cold);
     QCOMPARE(proxy.rowCount(), static_cast<int>(cold));
     int quarters = 0;
     std::int32_t lastMax = -1;
-    for (auto s : {ui::UserBrowserProxy::Segment::Activity1, ui::UserBrowserProxy::Segment::Activity2,
-                   ui::UserBrowserProxy::Segment::Activity3, ui::UserBrowserProxy::Segment::Activity4}) {
+    for (auto s : { ui::UserBrowserProxy::Segment::Activity1, ui::UserBrowserProxy::Segment::Activity2,
+             ui::UserBrowserProxy::Segment::Activity3, ui::UserBrowserProxy::Segment::Activity4 }) {
         proxy.setSegment(s);
         quarters += proxy.rowCount();
         std::int32_t lo = INT32_MAX, hi = -1;
@@ -304,7 +321,8 @@ void TestItemModels::inspectionAgreesWithTheRun()
         const auto user = m_eval->users.users[r];
         const auto inspection = ui::UserInspection::build(*m_data, *m_run, *m_eval, user, means);
         const auto list = m_run->listOf(user);
-        QCOMPARE(inspection.list.size(), std::min<std::size_t>(list.size(), static_cast<std::size_t>(m_eval->settings.k)));
+        QCOMPARE(
+            inspection.list.size(), std::min<std::size_t>(list.size(), static_cast<std::size_t>(m_eval->settings.k)));
         for (std::size_t i = 0; i < inspection.list.size(); ++i)
             QCOMPARE(inspection.list[i].item, list[i].item);
         const double precision = m_eval->users.value(core::Metric::Precision, r);
