@@ -3,7 +3,6 @@
 #include "app/slatewise/cliprogress.h"
 #include "app/slatewise/commands.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/importer.h"
 
 #include <iostream>
@@ -13,7 +12,7 @@ namespace slatewise::cli {
 namespace {
 const CommandSpec& spec()
 {
-    static const CommandSpec s{
+    static const CommandSpec s {
         "add-run",
         "WORKSPACE --name NAME [--scores F] [--lists F] [options]",
         "Adds a model run to a workspace: predicted scores (user_id,item_id,score) and/or ranked\n"
@@ -21,13 +20,13 @@ const CommandSpec& spec()
         "unchanged.",
         1,
         {
-            {"name", "NAME", "name of the run (must be new unless --replace)"},
-            {"scores", "F", "scores file: user_id,item_id,score"},
-            {"lists", "F", "lists file: user_id,rank,item_id[,score] (rank 1 = top)"},
-            {"replace", "", "replace an existing run of the same name"},
-            {"delimiter", "C", "field delimiter: ',' or 'tab' (default: by extension, .tsv = tab)"},
-            {"allow-unknown-items", "", "add unknown item ids to the catalog instead of failing"},
-            {"quiet", "", "no progress output"},
+            { "name", "NAME", "name of the run (must be new unless --replace)" },
+            { "scores", "F", "scores file: user_id,item_id,score" },
+            { "lists", "F", "lists file: user_id,rank,item_id[,score] (rank 1 = top)" },
+            { "replace", "", "replace an existing run of the same name" },
+            { "delimiter", "C", "field delimiter: ',' or 'tab' (default: by extension, .tsv = tab)" },
+            { "allow-unknown-items", "", "add unknown item ids to the catalog instead of failing" },
+            { "quiet", "", "no progress output" },
         },
     };
     return s;
@@ -64,10 +63,11 @@ int addRunCommand(const std::vector<std::string>& argv)
         return printErrors(spec().name, result.errors());
     const core::AddRunReport& r = result.value();
     printNotes(r.notes);
-    std::cout << (r.replaced ? "replaced run '" : "added run '") << request.name << "' to " << request.workspacePath << "\n";
+    std::cout << (r.replaced ? "replaced run '" : "added run '") << request.name << "' to " << request.workspacePath
+              << "\n";
     if (!request.scoresPath.empty())
-        std::cout << "  scores    " << r.scoreRows << " rows (" << r.scoresOutsideWithheld << " outside the withheld pairs, "
-                  << r.withheldWithoutScore << " withheld pairs without a score)\n";
+        std::cout << "  scores    " << r.scoreRows << " rows (" << r.scoresOutsideWithheld
+                  << " outside the withheld pairs, " << r.withheldWithoutScore << " withheld pairs without a score)\n";
     if (!request.listsPath.empty())
         std::cout << "  lists     " << r.listRows << " rows for " << r.listUsers << " users\n";
     std::cout << "  took      " << formatSeconds(r.seconds) << "\n";

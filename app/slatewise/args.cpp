@@ -8,8 +8,8 @@
 
 namespace slatewise::cli {
 
-std::optional<Args> Args::parse(const CommandSpec& spec, const std::vector<std::string>& argv, std::string& error,
-                                bool& helpRequested)
+std::optional<Args> Args::parse(
+    const CommandSpec& spec, const std::vector<std::string>& argv, std::string& error, bool& helpRequested)
 {
     Args args;
     helpRequested = false;
@@ -59,9 +59,15 @@ std::optional<Args> Args::parse(const CommandSpec& spec, const std::vector<std::
         }
         slot.push_back(value);
     }
+    for (const auto& o : spec.options) {
+        if (o.required && !args.has(o.name)) {
+            error = "--" + o.name + (o.valueName.empty() ? "" : " " + o.valueName) + " is required";
+            return std::nullopt;
+        }
+    }
     if (static_cast<int>(args.m_positionals.size()) != spec.positionals) {
         error = "'" + spec.name + "' expects " + std::to_string(spec.positionals) + " positional argument"
-                + (spec.positionals == 1 ? "" : "s") + ", got " + std::to_string(args.m_positionals.size());
+            + (spec.positionals == 1 ? "" : "s") + ", got " + std::to_string(args.m_positionals.size());
         return std::nullopt;
     }
     return args;
@@ -76,7 +82,7 @@ std::string Args::value(const std::string& name, const std::string& fallback) co
 std::vector<std::string> Args::values(const std::string& name) const
 {
     auto it = m_values.find(name);
-    return it == m_values.end() ? std::vector<std::string>{} : it->second;
+    return it == m_values.end() ? std::vector<std::string> {} : it->second;
 }
 
 std::optional<long long> Args::integer(const std::string& name, long long fallback, std::string& error) const
@@ -118,7 +124,7 @@ std::string helpText(const CommandSpec& spec)
                 left.resize(28, ' ');
             else
                 left += "\n" + std::string(28, ' ');
-            out += left + o.help + (o.repeatable ? " (repeatable)" : "") + "\n";
+            out += left + o.help + (o.required ? " (required)" : "") + (o.repeatable ? " (repeatable)" : "") + "\n";
         }
     }
     out += "  --help                    show this help\n";

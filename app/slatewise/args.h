@@ -11,17 +11,18 @@ namespace slatewise::cli {
 
 /// Declares one option of a subcommand: `--name VALUE` (or `--name=VALUE`), or a flag.
 struct OptionSpec {
-    std::string name;      ///< without the leading dashes
+    std::string name; ///< without the leading dashes
     std::string valueName; ///< empty for a flag
     std::string help;
     bool repeatable = false;
+    bool required = false; ///< the parser refuses a command line without it
 };
 
 struct CommandSpec {
     std::string name;
-    std::string synopsis;    ///< e.g. "WORKSPACE --catalog F --train F --test F"
+    std::string synopsis; ///< e.g. "WORKSPACE --catalog F --train F --test F"
     std::string description; ///< one paragraph
-    int positionals = 1;     ///< how many positional arguments are required
+    int positionals = 1; ///< how many positional arguments are required
     std::vector<OptionSpec> options;
 };
 
@@ -29,8 +30,8 @@ struct CommandSpec {
 class Args {
 public:
     /// On error returns nullopt and sets `error`; on --help sets `helpRequested`.
-    static std::optional<Args> parse(const CommandSpec& spec, const std::vector<std::string>& argv,
-                                     std::string& error, bool& helpRequested);
+    static std::optional<Args> parse(
+        const CommandSpec& spec, const std::vector<std::string>& argv, std::string& error, bool& helpRequested);
 
     const std::vector<std::string>& positionals() const { return m_positionals; }
     bool has(const std::string& name) const { return m_values.count(name) > 0; }

@@ -1,21 +1,24 @@
 // SPDX-License-Identifier: MIT
 #include "app/slatewise/cliprogress.h"
 
-#include <unistd.h>
-
 #include <atomic>
 #include <csignal>
 #include <cstdio>
+#include <unistd.h>
 
 namespace slatewise::cli {
 
 namespace {
 // Ctrl-C cancels through core::Progress, so the command stops cleanly and writes nothing.
-std::atomic<bool> g_interrupted{false};
-extern "C" void onInterrupt(int) { g_interrupted.store(true); }
+std::atomic<bool> g_interrupted { false };
+extern "C" void onInterrupt(int)
+{
+    g_interrupted.store(true);
+}
 } // namespace
 
-CliProgress::CliProgress(bool quiet) : m_enabled(!quiet && ::isatty(STDERR_FILENO) == 1)
+CliProgress::CliProgress(bool quiet)
+    : m_enabled(!quiet && ::isatty(STDERR_FILENO) == 1)
 {
     std::signal(SIGINT, onInterrupt);
     m_progress.cancel = &g_interrupted;
@@ -23,7 +26,10 @@ CliProgress::CliProgress(bool quiet) : m_enabled(!quiet && ::isatty(STDERR_FILEN
         m_progress.report = [this](double fraction, std::string_view stage) { report(fraction, stage); };
 }
 
-CliProgress::~CliProgress() { finish(); }
+CliProgress::~CliProgress()
+{
+    finish();
+}
 
 void CliProgress::report(double fraction, std::string_view stage)
 {

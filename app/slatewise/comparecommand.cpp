@@ -48,7 +48,11 @@ const CommandSpec& spec()
             1,
             {
                 { "base", "A", "the run to compare against (default: the parent of a re-ranked candidate)" },
-                { "candidate", "B", "the run being judged (required; repeat to compare several against A)", true },
+                { .name = "candidate",
+                    .valueName = "B",
+                    .help = "the run being judged (repeat to compare several against A)",
+                    .repeatable = true,
+                    .required = true },
                 { "metric", "M",
                     "per-user metric to compare (repeatable; default: ndcg, precision, recall, map, rmse, "
                     "ild, novelty, as far as both runs define them). One of: "
@@ -220,8 +224,6 @@ int compareCommand(const std::vector<std::string>& argv)
     auto args = parseOrExit(spec(), argv, exitCode);
     if (!args)
         return exitCode;
-    if (!args->has("candidate"))
-        return usageFailure(spec().name, "--candidate is required");
     std::string usage;
     auto eval = evalSettingsFromArgs(*args, usage);
     if (!eval)

@@ -1,7 +1,6 @@
 // SPDX-License-Identifier: MIT
 #include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
-
 #include "core/demogenerator.h"
 
 #include <cstdio>
@@ -11,15 +10,14 @@ namespace slatewise::cli {
 
 int demoDataCommand(const std::vector<std::string>& argv)
 {
-    const CommandSpec spec{
-        "demo-data",
-        "--out DIR [--seed N]",
+    const CommandSpec spec { "demo-data", "--out DIR [--seed N]",
         "Regenerates the invented film-club demo: catalog, members, train and withheld ratings and the three "
         "simulated runs. With the default seed the files are byte for byte those committed in demo-catalog/.",
         0,
-        {{"out", "DIR", "folder to write the files into (created when missing; files of the same name are replaced)"},
-         {"seed", "N", "random seed (default " + std::to_string(core::DemoGenerator::kDefaultSeed) + ")"},
-         {"quiet", "", "print nothing but errors"}}};
+        { { "out", "DIR",
+              "folder to write the files into (created when missing; files of the same name are replaced)" },
+            { "seed", "N", "random seed (default " + std::to_string(core::DemoGenerator::kDefaultSeed) + ")" },
+            { "quiet", "", "print nothing but errors" } } };
     int exitCode = ExitOk;
     const auto args = parseOrExit(spec, argv, exitCode);
     if (!args)
@@ -51,8 +49,8 @@ int demoDataCommand(const std::vector<std::string>& argv)
             bytes += f.content.size();
         std::printf("wrote %zu files (%.1f MB) to %s: %zu titles, %zu members, %zu train and %zu withheld ratings, "
                     "%zu runs\n",
-                    output.files.size(), static_cast<double>(bytes) / 1e6, dir.c_str(), output.facts.titles,
-                    output.facts.members, output.facts.trainRows, output.facts.withheldRows, output.runs.size());
+            output.files.size(), static_cast<double>(bytes) / 1e6, dir.c_str(), output.facts.titles,
+            output.facts.members, output.facts.trainRows, output.facts.withheldRows, output.runs.size());
     }
     return ExitOk;
 }

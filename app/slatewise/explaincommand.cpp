@@ -29,8 +29,8 @@ const CommandSpec& spec()
             "the run's mean. The run is evaluated first when no stored evaluation matches the settings.",
             1,
             {
-                { "run", "NAME", "the run to look at (required)" },
-                { "user", "ID", "the user's id as in the input files (required)" },
+                { .name = "run", .valueName = "NAME", .help = "the run to look at", .required = true },
+                { .name = "user", .valueName = "ID", .help = "the user's id as in the input files", .required = true },
                 { "json", "FILE", "also write the explanation as JSON to FILE ('-' for stdout only)" },
                 { "quiet", "", "no progress line" },
             } };
@@ -197,10 +197,6 @@ int explainCommand(const std::vector<std::string>& argv)
     auto args = parseOrExit(spec(), argv, exitCode);
     if (!args)
         return exitCode;
-    if (!args->has("run"))
-        return usageFailure(spec().name, "--run NAME is required");
-    if (!args->has("user"))
-        return usageFailure(spec().name, "--user ID is required");
     std::string usage;
     auto settings = evalSettingsFromArgs(*args, usage);
     if (!settings)

@@ -29,7 +29,10 @@ const CommandSpec& exportSpec()
             "into DIR, plus the tables (run summary, error by rating, k-curves, warning shares, worst-served "
             "users) as CSV. Needs no display.",
             1,
-            { { "out", "DIR", "directory to write into (created when missing)" },
+            { { .name = "out",
+                  .valueName = "DIR",
+                  .help = "directory to write into (created when missing)",
+                  .required = true },
                 { "run", "NAME", "a run to include (repeat for several; default: all runs)", true },
                 { "width", "PX", "PNG width in pixels (default 1600)" },
                 { "height", "PX", "PNG height in pixels (default 1000)" },
@@ -52,8 +55,8 @@ int exportCommand(const std::vector<std::string>& argv)
     const auto height = width ? args->integer("height", 1000, error) : std::nullopt;
     const auto dpi = height ? args->integer("dpi", 144, error) : std::nullopt;
     const auto settings = dpi ? evalSettingsFromArgs(*args, error) : std::nullopt;
-    if (!settings || !args->has("out"))
-        return usageFailure("export", error.empty() ? std::string("--out DIR is required") : error);
+    if (!settings)
+        return usageFailure("export", error);
     if (*width < 16 || *height < 16 || *width > 20000 || *height > 20000 || *dpi < 24 || *dpi > 1200)
         return usageFailure("export", "--width and --height must be 16..20000 pixels, --dpi 24..1200");
 

@@ -4,7 +4,6 @@
 #include "app/slatewise/commands.h"
 #include "app/slatewise/reporting.h"
 #include "app/slatewise/runheadlines.h"
-
 #include "core/fitservice.h"
 #include "core/workspace.h"
 
@@ -17,7 +16,7 @@ namespace slatewise::cli {
 namespace {
 const CommandSpec& spec()
 {
-    static const CommandSpec s{
+    static const CommandSpec s {
         "fit",
         "WORKSPACE --model popular|mean|bias|itemknn|als --name NAME [options]",
         "Fits a reference model on the workspace's train rows and stores it as a run: a score\n"
@@ -27,21 +26,22 @@ const CommandSpec& spec()
         "docs/models.md. Fitting is seeded: the same settings give the same run.",
         1,
         {
-            {"model", "MODEL", "popular, mean, bias, itemknn or als"},
-            {"name", "NAME", "name of the new run"},
-            {"rank", "R", "als: number of latent factors (default 32)"},
-            {"lambda", "L", "als: weighted-λ regularization (default 0.05); bias/itemknn: λ of the item biases "
-                            "(default 25; user biases use 10)"},
-            {"iterations", "N", "als: iterations (default 10); bias/itemknn: at most N bias sweeps (default 20)"},
-            {"neighbours", "K", "itemknn: neighbours per prediction (default 40)"},
-            {"shrinkage", "S", "itemknn: similarity shrinkage (default 100)"},
-            {"seed", "S", "random seed (default 20261202)"},
-            {"list-length", "N", "items per user list (default 100)"},
-            {"no-clip", "", "do not clip predicted ratings into the rating scale"},
-            {"dump-model", "FILE", "also write the fitted parameters as JSON (with user and item ids)"},
-            {"no-evaluate", "", "store the run without evaluating it"},
-            {"replace", "", "replace an existing run of that name"},
-            {"quiet", "", "no progress output"},
+            { .name = "model", .valueName = "MODEL", .help = "popular, mean, bias, itemknn or als", .required = true },
+            { .name = "name", .valueName = "NAME", .help = "name of the new run", .required = true },
+            { "rank", "R", "als: number of latent factors (default 32)" },
+            { "lambda", "L",
+                "als: weighted-λ regularization (default 0.05); bias/itemknn: λ of the item biases "
+                "(default 25; user biases use 10)" },
+            { "iterations", "N", "als: iterations (default 10); bias/itemknn: at most N bias sweeps (default 20)" },
+            { "neighbours", "K", "itemknn: neighbours per prediction (default 40)" },
+            { "shrinkage", "S", "itemknn: similarity shrinkage (default 100)" },
+            { "seed", "S", "random seed (default 20261202)" },
+            { "list-length", "N", "items per user list (default 100)" },
+            { "no-clip", "", "do not clip predicted ratings into the rating scale" },
+            { "dump-model", "FILE", "also write the fitted parameters as JSON (with user and item ids)" },
+            { "no-evaluate", "", "store the run without evaluating it" },
+            { "replace", "", "replace an existing run of that name" },
+            { "quiet", "", "no progress output" },
         },
     };
     return s;
@@ -55,14 +55,10 @@ int fitCommand(const std::vector<std::string>& argv)
     auto args = parseOrExit(spec(), argv, exitCode);
     if (!args)
         return exitCode;
-    if (!args->has("model"))
-        return usageFailure(spec().name, "--model is required (popular, mean, bias, itemknn or als)");
-    if (!args->has("name"))
-        return usageFailure(spec().name, "--name is required");
     const auto kind = core::modelKindFromString(args->value("model"));
     if (!kind)
-        return usageFailure(spec().name, "unknown model '" + args->value("model") +
-                                             "' (expected popular, mean, bias, itemknn or als)");
+        return usageFailure(
+            spec().name, "unknown model '" + args->value("model") + "' (expected popular, mean, bias, itemknn or als)");
     core::FitRequest request;
     request.name = args->value("name");
     request.replace = args->has("replace");
@@ -103,7 +99,7 @@ int fitCommand(const std::vector<std::string>& argv)
     request.onIteration = [&progress](const core::FitIteration& f) {
         progress.finish();
         std::printf("iteration %d/%d  train RMSE %.4f  withheld RMSE %.4f  (%s)\n", f.iteration, f.iterations,
-                    f.trainRmse, f.withheldRmse, formatSeconds(f.seconds).c_str());
+            f.trainRmse, f.withheldRmse, formatSeconds(f.seconds).c_str());
         std::fflush(stdout);
     };
     auto outcome = core::fitAndStore(ws.value(), request, progress.progress());
@@ -112,19 +108,20 @@ int fitCommand(const std::vector<std::string>& argv)
         return printErrors(spec().name, outcome.errors());
     const core::RunInfo& info = outcome->info;
     std::printf("stored run '%s' (%s, %s): %lld scores, %lld list rows for %lld users, fitted in %s\n",
-                info.name.c_str(), info.method.c_str(), info.settingsJson.c_str(),
-                static_cast<long long>(info.scoreCount), static_cast<long long>(info.listRowCount),
-                static_cast<long long>(info.listUserCount), formatSeconds(outcome->seconds).c_str());
+        info.name.c_str(), info.method.c_str(), info.settingsJson.c_str(), static_cast<long long>(info.scoreCount),
+        static_cast<long long>(info.listRowCount), static_cast<long long>(info.listUserCount),
+        formatSeconds(outcome->seconds).c_str());
     if (args->has("dump-model")) {
         std::ofstream out(args->value("dump-model"), std::ios::binary);
         out << outcome->parametersJson << "\n";
         if (!out)
-            return printErrors(spec().name, {core::Error{core::ErrorKind::Usage, args->value("dump-model"), 0, 0, {},
-                                                        "cannot write the model parameters", "a writable file"}});
+            return printErrors(spec().name,
+                { core::Error { core::ErrorKind::Usage, args->value("dump-model"), 0, 0, {},
+                    "cannot write the model parameters", "a writable file" } });
     }
     if (args->has("no-evaluate"))
         return ExitOk;
-    const int rc = printRunHeadlines(ws.value(), {info.name}, progress.progress());
+    const int rc = printRunHeadlines(ws.value(), { info.name }, progress.progress());
     progress.finish();
     return rc;
 }

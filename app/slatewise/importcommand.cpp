@@ -3,7 +3,6 @@
 #include "app/slatewise/cliprogress.h"
 #include "app/slatewise/commands.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/importer.h"
 
 #include <iostream>
@@ -13,7 +12,7 @@ namespace slatewise::cli {
 namespace {
 const CommandSpec& spec()
 {
-    static const CommandSpec s{
+    static const CommandSpec s {
         "import",
         "WORKSPACE --catalog F --train F --test F [options]",
         "Creates a workspace (one SQLite file) from a catalog, train interactions and withheld\n"
@@ -21,16 +20,16 @@ const CommandSpec& spec()
         "existing workspace is only replaced with --replace, and only once the import succeeded.",
         1,
         {
-            {"catalog", "F", "catalog file: item_id,title,year,genres,series,series_part"},
-            {"train", "F", "train interactions: user_id,item_id,rating,timestamp"},
-            {"test", "F", "withheld interactions, same columns as --train"},
-            {"withheld", "F", "the same as --test"},
-            {"scale", "MIN:MAX:STEP", "rating scale, e.g. 1:5:1 (STEP 0 = continuous); inferred when absent"},
-            {"delimiter", "C", "field delimiter: ',' or 'tab' (default: by extension, .tsv = tab)"},
-            {"replace", "", "overwrite an existing workspace"},
-            {"strict", "", "treat leakage (withheld pairs also in train) as an error"},
-            {"allow-unknown-items", "", "add unknown item ids to the catalog instead of failing"},
-            {"quiet", "", "no progress output"},
+            { "catalog", "F", "catalog file: item_id,title,year,genres,series,series_part" },
+            { "train", "F", "train interactions: user_id,item_id,rating,timestamp" },
+            { "test", "F", "withheld interactions, same columns as --train" },
+            { "withheld", "F", "the same as --test" },
+            { "scale", "MIN:MAX:STEP", "rating scale, e.g. 1:5:1 (STEP 0 = continuous); inferred when absent" },
+            { "delimiter", "C", "field delimiter: ',' or 'tab' (default: by extension, .tsv = tab)" },
+            { "replace", "", "overwrite an existing workspace" },
+            { "strict", "", "treat leakage (withheld pairs also in train) as an error" },
+            { "allow-unknown-items", "", "add unknown item ids to the catalog instead of failing" },
+            { "quiet", "", "no progress output" },
         },
     };
     return s;
@@ -56,7 +55,8 @@ int importCommand(const std::vector<std::string>& argv)
     if (args->has("scale")) {
         request.scale = core::parseScale(args->value("scale"));
         if (!request.scale)
-            usage = "--scale expects MIN:MAX:STEP with MIN < MAX and 0 <= STEP <= MAX - MIN, got '" + args->value("scale") + "'";
+            usage = "--scale expects MIN:MAX:STEP with MIN < MAX and 0 <= STEP <= MAX - MIN, got '"
+                + args->value("scale") + "'";
     }
     if (auto d = parseDelimiter(*args, usage))
         request.options.delimiter = *d;

@@ -2,26 +2,24 @@
 #include "app/slatewise/args.h"
 #include "app/slatewise/commands.h"
 #include "app/slatewise/reporting.h"
-
 #include "core/workspace.h"
 
-#include <nlohmann/json.hpp>
-
 #include <iostream>
+#include <nlohmann/json.hpp>
 
 namespace slatewise::cli {
 
 namespace {
 const CommandSpec& spec()
 {
-    static const CommandSpec s{
+    static const CommandSpec s {
         "info",
         "WORKSPACE [--json]",
         "Prints what a workspace holds: items, genres, series, users, train and withheld rows,\n"
         "the rating scale and every run with its counts.",
         1,
         {
-            {"json", "", "print the same as one JSON object"},
+            { "json", "", "print the same as one JSON object" },
         },
     };
     return s;
@@ -47,25 +45,18 @@ int infoCommand(const std::vector<std::string>& argv)
     if (args->has("json")) {
         nlohmann::json runs = nlohmann::json::array();
         for (const auto& r : s.runs)
-            runs.push_back({{"name", r.name},
-                            {"kind", std::string(core::toString(r.kind))},
-                            {"created_at", r.createdAt},
-                            {"parent", r.parentName.empty() ? nlohmann::json() : nlohmann::json(r.parentName)},
-                            {"method", r.method.empty() ? nlohmann::json() : nlohmann::json(r.method)},
-                            {"scores", r.scoreCount},
-                            {"list_rows", r.listRowCount},
-                            {"list_users", r.listUserCount}});
-        const nlohmann::json out{{"workspace", path},
-                                 {"schema_version", s.schemaVersion},
-                                 {"items", s.items},
-                                 {"genres", s.genres},
-                                 {"series", s.series},
-                                 {"users", s.users},
-                                 {"train", s.trainRows},
-                                 {"withheld", s.withheldRows},
-                                 {"scale", {{"min", s.scale.min}, {"max", s.scale.max}, {"step", s.scale.step},
-                                            {"source", s.scale.inferred ? "inferred" : "given"}}},
-                                 {"runs", runs}};
+            runs.push_back(
+                { { "name", r.name }, { "kind", std::string(core::toString(r.kind)) }, { "created_at", r.createdAt },
+                    { "parent", r.parentName.empty() ? nlohmann::json() : nlohmann::json(r.parentName) },
+                    { "method", r.method.empty() ? nlohmann::json() : nlohmann::json(r.method) },
+                    { "scores", r.scoreCount }, { "list_rows", r.listRowCount }, { "list_users", r.listUserCount } });
+        const nlohmann::json out { { "workspace", path }, { "schema_version", s.schemaVersion }, { "items", s.items },
+            { "genres", s.genres }, { "series", s.series }, { "users", s.users }, { "train", s.trainRows },
+            { "withheld", s.withheldRows },
+            { "scale",
+                { { "min", s.scale.min }, { "max", s.scale.max }, { "step", s.scale.step },
+                    { "source", s.scale.inferred ? "inferred" : "given" } } },
+            { "runs", runs } };
         std::cout << out.dump(2) << "\n";
         return ExitOk;
     }

@@ -8,20 +8,20 @@ namespace slatewise::cli {
 
 const std::vector<CommandEntry>& commands()
 {
-    static const std::vector<CommandEntry> table{
-        {"import", "create a workspace from catalog, train and withheld files", importCommand},
-        {"add-run", "add a model run (scores and/or ranked lists) to a workspace", addRunCommand},
-        {"info", "print what a workspace holds", infoCommand},
-        {"evaluate", "compute accuracy, ranking and beyond-accuracy measures", evaluateCommand},
-        {"worst", "list the worst-served users of a run", worstCommand},
-        {"explain", "show one user's list beside their withheld favourites, with warnings", explainCommand},
-        {"compare", "compare two runs user by user, with intervals and tests", compareCommand},
-        {"fit", "fit a reference model and store it as a run", fitCommand},
-        {"rerank", "derive a what-if run by re-ranking another run's lists", rerankCommand},
-        {"export", "write every chart as PNG, SVG and PDF", exportCommand},
-        {"report", "write the meeting pack PDF", reportCommand},
-        {"demo-data", "regenerate the invented film-club demo files", demoDataCommand},
-        {"demo", "build the ready-to-explore demo workspace", demoCommand},
+    static const std::vector<CommandEntry> table {
+        { "import", "create a workspace from catalog, train and withheld files", importCommand },
+        { "add-run", "add a model run (scores and/or ranked lists) to a workspace", addRunCommand },
+        { "info", "print what a workspace holds", infoCommand },
+        { "evaluate", "compute accuracy, ranking and beyond-accuracy measures", evaluateCommand },
+        { "worst", "list the worst-served users of a run", worstCommand },
+        { "explain", "show one user's list beside their withheld favourites, with warnings", explainCommand },
+        { "compare", "compare two runs user by user, with intervals and tests", compareCommand },
+        { "fit", "fit a reference model and store it as a run", fitCommand },
+        { "rerank", "derive a what-if run by re-ranking another run's lists", rerankCommand },
+        { "export", "write every chart as PNG, SVG and PDF", exportCommand },
+        { "report", "write the meeting pack PDF", reportCommand },
+        { "demo-data", "regenerate the invented film-club demo files", demoDataCommand },
+        { "demo", "build the ready-to-explore demo workspace", demoCommand },
     };
     return table;
 }

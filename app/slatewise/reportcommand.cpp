@@ -27,7 +27,8 @@ const CommandSpec& reportSpec()
             "k-curves, warning prevalence, the comparison of B against A (when both are given), the ten "
             "worst-served users and three user case studies. Needs no display.",
             1,
-            { { "out", "FILE", "the PDF to write" }, { "base", "NAME", "the run to compare against" },
+            { { .name = "out", .valueName = "FILE", .help = "the PDF to write", .required = true },
+                { "base", "NAME", "the run to compare against" },
                 { "candidate", "NAME", "the run being judged; its worst-served users are the case studies" },
                 { "run", "NAME", "a run to include (repeat for several; default: all runs)", true } } };
         return withEvalSettingsOptions(std::move(c));
@@ -45,8 +46,8 @@ int reportCommand(const std::vector<std::string>& argv)
         return exitCode;
     std::string error;
     const auto settings = evalSettingsFromArgs(*args, error);
-    if (!settings || !args->has("out"))
-        return usageFailure("report", error.empty() ? std::string("--out FILE.pdf is required") : error);
+    if (!settings)
+        return usageFailure("report", error);
     if (args->has("base") != args->has("candidate"))
         return usageFailure("report", "give both --base and --candidate, or neither");
     std::vector<std::string> runs = args->values("run");

@@ -4,7 +4,6 @@
 #include "app/slatewise/commands.h"
 #include "app/slatewise/reporting.h"
 #include "app/slatewise/runheadlines.h"
-
 #include "core/fitservice.h"
 #include "core/workspace.h"
 
@@ -16,7 +15,7 @@ namespace slatewise::cli {
 namespace {
 const CommandSpec& spec()
 {
-    static const CommandSpec s{
+    static const CommandSpec s {
         "rerank",
         "WORKSPACE --run NAME --method mmr|series-order|burst-damp --name NEW [--lambda X]",
         "Re-ranks every list of a run and stores the result as a derived run that records its\n"
@@ -26,13 +25,13 @@ const CommandSpec& spec()
         "Both runs are then evaluated (k = 10; stored) and printed side by side. See docs/models.md.",
         1,
         {
-            {"run", "NAME", "the parent run"},
-            {"method", "METHOD", "mmr, series-order or burst-damp"},
-            {"name", "NEW", "name of the derived run"},
-            {"lambda", "X", "mmr: relevance weight 0..1 (default 0.5); burst-damp: damping 0..1 (default 1)"},
-            {"no-evaluate", "", "store the run without evaluating it"},
-            {"replace", "", "replace an existing run of that name"},
-            {"quiet", "", "no progress output"},
+            { .name = "run", .valueName = "NAME", .help = "the parent run", .required = true },
+            { .name = "method", .valueName = "METHOD", .help = "mmr, series-order or burst-damp", .required = true },
+            { .name = "name", .valueName = "NEW", .help = "name of the derived run", .required = true },
+            { "lambda", "X", "mmr: relevance weight 0..1 (default 0.5); burst-damp: damping 0..1 (default 1)" },
+            { "no-evaluate", "", "store the run without evaluating it" },
+            { "replace", "", "replace an existing run of that name" },
+            { "quiet", "", "no progress output" },
         },
     };
     return s;
@@ -45,13 +44,10 @@ int rerankCommand(const std::vector<std::string>& argv)
     auto args = parseOrExit(spec(), argv, exitCode);
     if (!args)
         return exitCode;
-    for (const char* required : {"run", "method", "name"})
-        if (!args->has(required))
-            return usageFailure(spec().name, std::string("--") + required + " is required");
     const auto method = core::rerankMethodFromString(args->value("method"));
     if (!method)
-        return usageFailure(spec().name, "unknown method '" + args->value("method") +
-                                             "' (expected mmr, series-order or burst-damp)");
+        return usageFailure(
+            spec().name, "unknown method '" + args->value("method") + "' (expected mmr, series-order or burst-damp)");
     core::RerankRequest request;
     request.parentName = args->value("run");
     request.name = args->value("name");
@@ -73,11 +69,11 @@ int rerankCommand(const std::vector<std::string>& argv)
     if (!info)
         return printErrors(spec().name, info.errors());
     std::printf("stored run '%s' (%s of '%s', %s): %lld list rows for %lld users\n", info->name.c_str(),
-                info->method.c_str(), info->parentName.c_str(), info->settingsJson.c_str(),
-                static_cast<long long>(info->listRowCount), static_cast<long long>(info->listUserCount));
+        info->method.c_str(), info->parentName.c_str(), info->settingsJson.c_str(),
+        static_cast<long long>(info->listRowCount), static_cast<long long>(info->listUserCount));
     if (args->has("no-evaluate"))
         return ExitOk;
-    const int rc = printRunHeadlines(ws.value(), {request.parentName, request.name}, progress.progress());
+    const int rc = printRunHeadlines(ws.value(), { request.parentName, request.name }, progress.progress());
     progress.finish();
     return rc;
 }

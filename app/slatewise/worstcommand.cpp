@@ -29,11 +29,13 @@ const CommandSpec& spec()
             "(mean_error, popularity_lift) are ordered by their size, largest first.",
             1,
             {
-                { "run", "NAME", "the run to look at (required)" },
-                { "by", "METRIC",
-                    "per-user metric: rmse, mae, mean_error, precision, recall, ap (map), rr (mrr), "
-                    "ndcg, ndcg_graded, heldout_topk, ild, novelty, popularity_lift, calibration_kl, "
-                    "series_share, order_violations, burst_echo, seen_in_list" },
+                { .name = "run", .valueName = "NAME", .help = "the run to look at", .required = true },
+                { .name = "by",
+                    .valueName = "METRIC",
+                    .help = "per-user metric: rmse, mae, mean_error, precision, recall, ap (map), rr (mrr), "
+                            "ndcg, ndcg_graded, heldout_topk, ild, novelty, popularity_lift, calibration_kl, "
+                            "series_share, order_violations, burst_echo, seen_in_list",
+                    .required = true },
                 { "limit", "N", "how many users to list (default 20; 0 = all)" },
                 { "warning", "CODE", "only users carrying this warning (e.g. sequel-first)" },
                 { "quiet", "", "no progress line" },
@@ -66,10 +68,6 @@ int worstCommand(const std::vector<std::string>& argv)
     auto args = parseOrExit(spec(), argv, exitCode);
     if (!args)
         return exitCode;
-    if (!args->has("run"))
-        return usageFailure(spec().name, "--run NAME is required");
-    if (!args->has("by"))
-        return usageFailure(spec().name, "--by METRIC is required");
     const auto metric = core::metricFromKey(args->value("by"));
     if (!metric)
         return usageFailure(spec().name,

@@ -141,6 +141,15 @@ private slots:
                  qPrintable(bad.err));
         QVERIFY(!QFile::exists(path(QStringLiteral("x.sqlite"))));
         QCOMPARE(runCli({QStringLiteral("import"), QStringLiteral("--help")}).exitCode, 0);
+        // A required option is named in the usage error (exit code 1), before any file is read;
+        // --help still works without it.
+        const auto noRun = runCli({QStringLiteral("worst"), path(QStringLiteral("missing.sqlite")), QStringLiteral("--by"),
+                                   QStringLiteral("ndcg")});
+        QCOMPARE(noRun.exitCode, 1);
+        QVERIFY2(noRun.err.contains(QStringLiteral("--run NAME is required")), qPrintable(noRun.err));
+        const auto help = runCli({QStringLiteral("worst"), QStringLiteral("--help")});
+        QCOMPARE(help.exitCode, 0);
+        QVERIFY2(help.out.contains(QStringLiteral("the run to look at (required)")), qPrintable(help.out));
     }
 
     void badImport_data()
